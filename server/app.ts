@@ -1,0 +1,147 @@
+import { existsSync } from 'node:fs';
+import { createServer, type Server as HttpServer } from 'node:http';
+import path from 'node:path';
+import connectSessionSequelize from 'connect-session-sequelize';
+import { csrfSync } from 'csrf-sync';
+import express, { type Request } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import { Server } from 'socket.io';
+import { createPassport } from './auth/passport';
+import { DEFAULT_SIGN_IN_LIMITS, signInLimiters } from './auth/rate-limit';
+import type { AppDeps } from './deps';
+import { createErrorHandler, HttpError } from './http/errors';
+import { mountRoutes, type RouteDef } from './http/route';
+import { initModels } from './models';
+import { registerClockHandlers } from './realtime/clock.handlers';
+import type { HoldfireServer } from './realtime/types';
+import { authRoutes } from './routes/auth.routes';
+import { healthRoutes } from './routes/health.routes';
+import { invitationRoutes } from './routes/invitations.routes';
+import { mailRoutes } from './routes/mail.routes';
+import { passwordResetRoutes } from './routes/password-resets.routes';
+import { profileRoutes } from './routes/profile.routes';
+import { setupRoutes } from './routes/setup.routes';
+import { userRoutes } from './routes/users.routes';
+import './types';
+
+const SESSION_HOURS = 12;
+
+export interface HoldfireApp {
+  app: express.Express;
+  httpServer: HttpServer;
+  io: HoldfireServer;
+  /** Every API route with its access rule: the table the security tests walk. */
+  routes: RouteDef[];
+  close(): Promise<void>;
+}
+
+export function createApp(deps: AppDeps): HoldfireApp {
+  const { config } = deps;
+  const log = deps.log ?? ((message: string, error?: unknown) => console.error(message, error));
+  initModels(deps.sequelize);
+
+  const app = express();
+  app.set('trust proxy', 'loopback');
+  app.disable('x-powered-by');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+          ...(config.secureCookies ? { upgradeInsecureRequests: [] } : {}),
+        },
+      },
+      strictTransportSecurity: config.secureCookies,
+    }),
+  );
+  app.use(express.json({ limit: '200kb' }));
+
+  const SequelizeStore = connectSessionSequelize(session.Store);
+  const store = new SequelizeStore({ db: deps.sequelize, table: 'Session', checkExpirationInterval: 15 * 60 * 1000 });
+  const sessionMiddleware = session({
+    name: 'holdfire.sid',
+    secret: config.sessionSecret,
+    store,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    cookie: { httpOnly: true, sameSite: 'lax', secure: config.secureCookies, maxAge: SESSION_HOURS * 3600 * 1000 },
+  });
+  const passport = createPassport();
+  app.use(sessionMiddleware);
+  app.use(passport.initialize());
+  app.use(passport.session());
+
+  const { csrfSynchronisedProtection, generateToken } = csrfSync({
+    getTokenFromRequest: (req) => req.headers['x-csrf-token'] as string | undefined,
+  });
+
+  const routes: RouteDef[] = [
+    ...healthRoutes,
+    ...authRoutes({
+      passport,
+      limiters: signInLimiters(deps.signInLimits ?? DEFAULT_SIGN_IN_LIMITS),
+      generateCsrfToken: (req: Request) => generateToken(req, true),
+    }),
+    ...setupRoutes,
+    ...userRoutes,
+    ...invitationRoutes({ ...deps, log }),
+    ...passwordResetRoutes({ ...deps, log }),
+    ...profileRoutes,
+    ...mailRoutes,
+  ];
+
+  const api = express.Router();
+  api.use(csrfSynchronisedProtection);
+  api.use(mountRoutes(routes));
+  api.use((req) => {
+    throw new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}.`);
+  });
+  app.use('/api', api);
+
+  const clientDir = path.resolve('dist');
+  if (existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    // Deep links (e-mailed invitation links, a reload on any page) get the client, which routes itself.
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+  app.use(createErrorHandler((error) => log('unhandled error', error)));
+
+  const httpServer = createServer(app);
+  const io: HoldfireServer = new Server(httpServer, { serveClient: false });
+  io.engine.use(sessionMiddleware);
+  io.engine.use(passport.initialize());
+  io.engine.use(passport.session());
+  io.use((socket, next) => {
+    const user = (socket.request as Request).user;
+    if (!user) return next(new Error('Sign in to connect.'));
+    socket.data.userId = user.id;
+    next();
+  });
+  io.on('connection', (socket) => {
+    registerClockHandlers(io, socket);
+  });
+
+  return {
+    app,
+    httpServer,
+    io,
+    routes,
+    async close() {
+      store.stopExpiringSessions();
+      await new Promise<void>((resolve) => io.close(() => resolve()));
+      if (httpServer.listening) await new Promise<void>((resolve) => httpServer.close(() => resolve()));
+    },
+  };
+}

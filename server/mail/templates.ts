@@ -1,0 +1,34 @@
+import { ROLE_LABELS, type Role } from '../../src/domain/people/roles';
+import type { OutgoingMail } from './mailer';
+
+const SIGNATURE = '\n\n-- \nHoldfire: planning and record aid for engine test teams.\nIf you did not expect this message, you can ignore it.';
+
+export function invitationMail(args: {
+  to: string;
+  teamName: string;
+  invitedBy: string;
+  roles: Role[];
+  link: string;
+  expiresAt: Date;
+}): OutgoingMail {
+  const roles = args.roles.map((r) => ROLE_LABELS[r]).join(', ');
+  return {
+    to: args.to,
+    subject: `You are invited to ${args.teamName} on Holdfire`,
+    text:
+      `${args.invitedBy} invited you to join ${args.teamName} on Holdfire as: ${roles}.\n\n` +
+      `Set your name and password here (the link works once, until ${args.expiresAt.toUTCString()}):\n${args.link}` +
+      SIGNATURE,
+  };
+}
+
+export function passwordResetMail(args: { to: string; link: string; expiresAt: Date }): OutgoingMail {
+  return {
+    to: args.to,
+    subject: 'Reset your Holdfire password',
+    text:
+      `Someone asked to reset the Holdfire password for ${args.to}.\n\n` +
+      `Choose a new password here (the link works once, until ${args.expiresAt.toUTCString()}):\n${args.link}` +
+      SIGNATURE,
+  };
+}

@@ -1,0 +1,42 @@
+import { passwordChangeSchema, profileUpdateSchema } from '../../src/contract/people';
+import { hashPassword, verifyPassword } from '../auth/passwords';
+import { HttpError, notFound } from '../http/errors';
+import { route } from '../http/route';
+import { User } from '../models';
+
+async function me(id: number): Promise<User> {
+  const user = await User.findByPk(id);
+  if (!user) throw notFound('No such user.');
+  return user;
+}
+
+export const profileRoutes = [
+  route({
+    method: 'patch',
+    path: '/profile',
+    access: 'signed-in',
+    body: profileUpdateSchema,
+    handler: async ({ body, user }) => {
+      const record = await me(user!.id);
+      record.name = body.name;
+      await record.save();
+      return record.toMe();
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/profile/password',
+    access: 'signed-in',
+    body: passwordChangeSchema,
+    handler: async ({ body, user }) => {
+      const record = await me(user!.id);
+      if (!(await verifyPassword(body.currentPassword, record.passwordHash))) {
+        throw new HttpError(400, 'bad_password', 'Your current password is not right.', [
+          { path: 'currentPassword', message: 'Not your current password' },
+        ]);
+      }
+      record.passwordHash = await hashPassword(body.newPassword);
+      await record.save();
+    },
+  }),
+];

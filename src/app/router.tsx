@@ -1,0 +1,72 @@
+import { createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { AcceptInvitationPage } from '../features/auth/components/AcceptInvitationPage';
+import { CompletePasswordResetPage } from '../features/auth/components/CompletePasswordResetPage';
+import { RequestPasswordResetPage } from '../features/auth/components/RequestPasswordResetPage';
+import { SetupPage } from '../features/auth/components/SetupPage';
+import { SignInPage } from '../features/auth/components/SignInPage';
+import { LiveCountPage } from '../features/counts/components/LiveCountPage';
+import { HazardRegisterPage } from '../features/hazards/components/HazardRegisterPage';
+import { HomePage } from '../features/home/components/HomePage';
+import { MailOutboxPage } from '../features/mail/components/MailOutboxPage';
+import { PeoplePage } from '../features/people/components/PeoplePage';
+import { ProceduresPage } from '../features/procedures/components/ProceduresPage';
+import { ProfilePage } from '../features/profile/components/ProfilePage';
+import { RecordsPage } from '../features/records/components/RecordsPage';
+import { AppShell } from './layout/AppShell';
+import { PublicLayout } from './layout/PublicLayout';
+import { NotFoundRoute } from './NotFound';
+import { RequireRole } from './RequireRole';
+import { RootError, RouteError } from './RouteError';
+
+export const routes: RouteObject[] = [
+  {
+    errorElement: <RootError />,
+    children: [
+      {
+        element: <PublicLayout />,
+        children: [
+          {
+            errorElement: <RouteError />,
+            children: [
+              { path: 'sign-in', element: <SignInPage /> },
+              { path: 'setup', element: <SetupPage /> },
+              { path: 'invite/:token', element: <AcceptInvitationPage /> },
+              { path: 'reset-password', element: <RequestPasswordResetPage /> },
+              { path: 'reset-password/:token', element: <CompletePasswordResetPage /> },
+            ],
+          },
+        ],
+      },
+      {
+        element: <AppShell />,
+        children: [
+          {
+            // Errors inside a page keep the shell (navigation, sign out) around the error message.
+            errorElement: <RouteError />,
+            children: [
+              { index: true, element: <HomePage /> },
+              { path: 'hazards', element: <HazardRegisterPage /> },
+              { path: 'procedures', element: <ProceduresPage /> },
+              { path: 'counts', element: <LiveCountPage /> },
+              { path: 'records', element: <RecordsPage /> },
+              { path: 'profile', element: <ProfilePage /> },
+              {
+                path: 'admin',
+                element: <RequireRole anyOf={['admin']} />,
+                children: [
+                  { path: 'people', element: <PeoplePage /> },
+                  { path: 'mail', element: <MailOutboxPage /> },
+                ],
+              },
+            ],
+          },
+        ],
+      },
+      { path: '*', element: <NotFoundRoute /> },
+    ],
+  },
+];
+
+export function createAppRouter() {
+  return createBrowserRouter(routes);
+}

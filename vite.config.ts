@@ -1,0 +1,42 @@
+import { defineConfig } from 'vitest/config';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+
+const apiTarget = `http://localhost:${process.env.PORT ?? 3000}`;
+
+export default defineConfig({
+  plugins: [react(), tailwindcss()],
+  server: {
+    port: 5173,
+    proxy: {
+      '/api': apiTarget,
+      '/socket.io': { target: apiTarget, ws: true },
+    },
+  },
+  build: { outDir: 'dist', sourcemap: true },
+  test: {
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: 'node',
+          include: ['tests/**/*.test.ts'],
+          environment: 'node',
+          globals: true,
+          testTimeout: 20_000,
+          hookTimeout: 30_000,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'client',
+          include: ['tests/**/*.test.tsx'],
+          environment: 'jsdom',
+          globals: true,
+          setupFiles: ['tests/setup-dom.ts'],
+        },
+      },
+    ],
+  },
+});
