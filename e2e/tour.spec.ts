@@ -1,0 +1,47 @@
+import { expectAccessible, expect, storageStateFor, test, type RoleName } from './fixtures';
+
+const viewports = [
+  { name: 'phone', width: 390, height: 844 },
+  { name: 'desktop', width: 1280, height: 800 },
+];
+const themes = ['daylight', 'night'] as const;
+
+const pages: { role: RoleName | null; path: string; name: string }[] = [
+  { role: null, path: '/sign-in', name: 'sign-in' },
+  { role: null, path: '/reset-password', name: 'reset-request' },
+  { role: 'conductor', path: '/', name: 'home-conductor' },
+  { role: 'safety', path: '/hazards', name: 'hazards' },
+  { role: 'conductor', path: '/procedures', name: 'procedures' },
+  { role: 'operator', path: '/counts', name: 'counts' },
+  { role: 'auditor', path: '/records', name: 'records' },
+  { role: 'admin', path: '/admin/people', name: 'people' },
+  { role: 'admin', path: '/admin/mail', name: 'mail' },
+  { role: 'operator', path: '/profile', name: 'profile' },
+  { role: 'operator', path: '/admin/people', name: 'forbidden' },
+  { role: 'conductor', path: '/nowhere', name: 'not-found' },
+];
+
+for (const p of pages) {
+  test.describe(p.name, () => {
+    if (p.role) test.use({ storageState: storageStateFor(p.role) });
+
+    test(`${p.name}: accessible and screenshotted in both themes at phone and desktop size`, async ({ page, consoleErrors }) => {
+      void consoleErrors;
+      for (const theme of themes) {
+        await page.addInitScript((t) => localStorage.setItem('holdfire.theme', t), theme);
+        for (const vp of viewports) {
+          await page.setViewportSize({ width: vp.width, height: vp.height });
+          await page.goto(p.path);
+          await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+          await expect(page.locator('html')).toHaveAttribute('data-theme', theme);
+          await page.evaluate(() => document.fonts.ready);
+          // Nothing may force the page wider than the phone.
+          const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+          expect(overflow, `${p.name} ${vp.name} scrolls sideways`).toBeLessThanOrEqual(0);
+          await expectAccessible(page, `${p.name} ${theme} ${vp.name}`);
+          await page.screenshot({ path: `e2e/screenshots/${p.name}-${vp.name}-${theme}.png`, fullPage: true });
+        }
+      }
+    });
+  });
+}

@@ -1,0 +1,88 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import type { SignInLimits } from '../../server/auth/rate-limit';
+import { startHoldfire, type Holdfire } from '../../server/bootstrap';
+import { DEMO_PASSWORD } from '../../server/db/seed';
+
+export interface TestApp {
+  holdfire: Holdfire;
+  dataDir: string;
+  /** A cookie-keeping client with a fresh CSRF token, optionally signed in. */
+  client(email?: string, password?: string): Promise<TestClient>;
+  stop(): Promise<void>;
+}
+
+export interface TestClient {
+  agent: ReturnType<typeof request.agent>;
+  csrf: string;
+  /** Fetch a new CSRF token (the session is regenerated at sign-in and sign-out). */
+  refreshCsrf(): Promise<string>;
+  post(url: string, body?: object): request.Test;
+  patch(url: string, body?: object): request.Test;
+  get(url: string): request.Test;
+}
+
+/** The real server on a temporary SQLite file, with the real local SMTP server. */
+export async function startTestApp(
+  options: { seed?: 'demo' | 'none'; env?: Record<string, string>; signInLimits?: SignInLimits } = {},
+): Promise<TestApp> {
+  const dataDir = mkdtempSync(path.join(tmpdir(), 'holdfire-test-'));
+  const holdfire = await startHoldfire(
+    {
+      HOLDFIRE_DATA_DIR: dataDir,
+      DATABASE_URL: `sqlite:${path.join(dataDir, 'holdfire.sqlite')}`,
+      HOLDFIRE_SEED: options.seed ?? 'demo',
+      NODE_ENV: 'test',
+      APP_URL: 'http://holdfire.test',
+      ...options.env,
+    },
+    { passwordCost: 4, signInLimits: options.signInLimits, log: () => {} },
+  );
+  const app = holdfire.app;
+
+  async function client(email?: string, password = DEMO_PASSWORD): Promise<TestClient> {
+    const agent = request.agent(app);
+    const c: TestClient = {
+      agent,
+      csrf: '',
+      async refreshCsrf() {
+        const res = await agent.get('/api/auth/csrf').expect(200);
+        c.csrf = res.body.csrfToken;
+        return c.csrf;
+      },
+      post: (url, body = {}) => agent.post(url).set('X-CSRF-Token', c.csrf).send(body),
+      patch: (url, body = {}) => agent.patch(url).set('X-CSRF-Token', c.csrf).send(body),
+      get: (url) => agent.get(url),
+    };
+    await c.refreshCsrf();
+    if (email) {
+      await c.post('/api/auth/login', { email, password }).expect(200);
+      await c.refreshCsrf();
+    }
+    return c;
+  }
+
+  return {
+    holdfire,
+    dataDir,
+    client,
+    async stop() {
+      await holdfire.shutdown();
+      rmSync(dataDir, { recursive: true, force: true });
+    },
+  };
+}
+
+/** Waits until the local SMTP server has stored a message for `to` (delivery is asynchronous). */
+export async function waitForMail(admin: TestClient, to: string, timeoutMs = 5000) {
+  const until = Date.now() + timeoutMs;
+  for (;;) {
+    const res = await admin.get('/api/mail/outbox').expect(200);
+    const found = (res.body as { to: string; subject: string; text: string }[]).find((m) => m.to.includes(to));
+    if (found) return found;
+    if (Date.now() > until) throw new Error(`no mail for ${to} within ${timeoutMs} ms`);
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}
