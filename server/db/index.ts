@@ -1,4 +1,4 @@
-import { Sequelize } from 'sequelize';
+import { Sequelize, Transaction } from 'sequelize';
 import type { Config } from '../config';
 
 const BUSY_TIMEOUT_MS = 5000;
@@ -19,6 +19,8 @@ export async function openDatabase(config: Pick<Config, 'sqliteStorage'>): Promi
     storage: config.sqliteStorage,
     logging: false,
     define: { underscored: true },
+    // IMMEDIATE takes the write lock at BEGIN: two transactions that read then write cannot both pass the read.
+    transactionType: Transaction.TYPES.IMMEDIATE,
   });
   // The sqlite dialect has no afterConnect hook: wrap its getConnection to configure each new connection once.
   const manager = sequelize.connectionManager as unknown as { getConnection(options?: unknown): Promise<SqliteConnection> };

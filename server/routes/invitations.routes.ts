@@ -103,13 +103,19 @@ export function invitationRoutes(deps: Pick<AppDeps, 'mailer' | 'config' | 'log'
         }
         const passwordHash = await hashPassword(body.password);
         const user = await User.sequelize!.transaction(async (transaction) => {
-          const created = await User.create(
+          // Claim the invitation first: of two requests racing with the same link, only one gets it.
+          const [claimed] = await Invitation.update(
+            { acceptedAt: new Date() },
+            { where: { id: invitation.id, acceptedAt: null }, transaction },
+          );
+          if (claimed !== 1) throw new HttpError(409, 'used', 'This invitation has been used already. Sign in instead.');
+          if (await User.findOne({ where: { email: invitation.email }, transaction })) {
+            throw conflict('Someone with this e-mail already has an account. Sign in instead.', 'already_exists');
+          }
+          return User.create(
             { teamId: invitation.teamId, email: invitation.email, name: body.name, passwordHash, roles: invitation.roles },
             { transaction },
           );
-          invitation.acceptedAt = new Date();
-          await invitation.save({ transaction });
-          return created;
         });
         await logIn(req, user);
         return user.toMe();

@@ -25,11 +25,10 @@ export function passwordResetRoutes(deps: Pick<AppDeps, 'mailer' | 'config' | 'l
           const { token, hash } = newToken();
           const expiresAt = addHours(new Date(), RESET_HOURS);
           await PasswordReset.create({ userId: user.id, tokenHash: hash, expiresAt, usedAt: null });
-          try {
-            await deps.mailer.send(passwordResetMail({ to: user.email, link: `${deps.config.appUrl}/reset-password/${token}`, expiresAt }));
-          } catch (error) {
-            deps.log?.('password reset e-mail failed', error);
-          }
+          // Not awaited: a known address must answer as fast as an unknown one.
+          deps.mailer
+            .send(passwordResetMail({ to: user.email, link: `${deps.config.appUrl}/reset-password/${token}`, expiresAt }))
+            .catch((error: unknown) => deps.log?.('password reset e-mail failed', error));
         }
         return { ok: true };
       },
@@ -48,9 +47,10 @@ export function passwordResetRoutes(deps: Pick<AppDeps, 'mailer' | 'config' | 'l
         if (!user || !user.active) throw new HttpError(410, 'expired', 'This reset link is no longer valid.');
         user.passwordHash = await hashPassword(body.password);
         await User.sequelize!.transaction(async (transaction) => {
+          // Claim the token first, so a link sent twice at once sets the password only once.
+          const [claimed] = await PasswordReset.update({ usedAt: new Date() }, { where: { id: reset.id, usedAt: null }, transaction });
+          if (claimed !== 1) throw new HttpError(410, 'expired', 'This reset link has expired or was used already. Ask for a new one.');
           await user.save({ transaction });
-          reset.usedAt = new Date();
-          await reset.save({ transaction });
         });
       },
     }),
