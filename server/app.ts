@@ -16,11 +16,15 @@ import { initModels } from './models';
 import { registerClockHandlers } from './realtime/clock.handlers';
 import type { HoldfireServer } from './realtime/types';
 import { authRoutes } from './routes/auth.routes';
+import { calcRoutes } from './routes/calc.routes';
+import { hazardRoutes } from './routes/hazards.routes';
 import { healthRoutes } from './routes/health.routes';
 import { invitationRoutes } from './routes/invitations.routes';
 import { mailRoutes } from './routes/mail.routes';
 import { passwordResetRoutes } from './routes/password-resets.routes';
 import { profileRoutes } from './routes/profile.routes';
+import { propellantRoutes } from './routes/propellants.routes';
+import { riskMatrixRoutes } from './routes/risk-matrices.routes';
 import { setupRoutes } from './routes/setup.routes';
 import { userRoutes } from './routes/users.routes';
 import './types';
@@ -100,6 +104,10 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...passwordResetRoutes({ ...deps, log }),
     ...profileRoutes,
     ...mailRoutes,
+    ...hazardRoutes(),
+    ...riskMatrixRoutes(),
+    ...propellantRoutes(),
+    ...calcRoutes(),
   ];
 
   const api = express.Router();

@@ -1,6 +1,7 @@
 import type { QueryInterface, Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
 import * as m0001 from './migrations/0001-foundation';
+import * as m0002 from './migrations/0002-hazards';
 
 export interface MigrationContext {
   queryInterface: QueryInterface;
@@ -8,7 +9,10 @@ export interface MigrationContext {
 }
 
 /** Migrations are listed here in order; a new one is a file in ./migrations plus one line below. */
-const MIGRATIONS = [{ name: '0001-foundation', ...m0001 }];
+const MIGRATIONS = [
+  { name: '0001-foundation', ...m0001 },
+  { name: '0002-hazards', ...m0002 },
+];
 
 export function createMigrator(sequelize: Sequelize) {
   return new Umzug<MigrationContext>({

@@ -1,6 +1,7 @@
 import type { Role } from '../../src/domain/people/roles';
 import { hashPassword } from '../auth/passwords';
 import { Team, User } from '../models';
+import { seedDemoHazards } from './seed-hazards';
 
 /** Demo sign-ins for the invented team; for trying Holdfire only, never for a real test site. */
 export const DEMO_PASSWORD = 'kestrel-demo';
@@ -22,9 +23,11 @@ export async function seedDemo(options: { passwordCost?: number } = {}): Promise
   const passwordHash = await hashPassword(DEMO_PASSWORD, options.passwordCost);
   await Team.sequelize!.transaction(async (transaction) => {
     const team = await Team.create(DEMO_TEAM, { transaction });
+    const users: User[] = [];
     for (const user of DEMO_USERS) {
-      await User.create({ ...user, teamId: team.id, passwordHash }, { transaction });
+      users.push(await User.create({ ...user, teamId: team.id, passwordHash }, { transaction }));
     }
+    await seedDemoHazards(team.id, users, transaction);
   });
   return true;
 }

@@ -1,14 +1,39 @@
 import type { Sequelize } from 'sequelize';
+import { HazardAcceptance } from './hazard-acceptance.model';
+import { HazardHistory } from './hazard-history.model';
+import { Hazard } from './hazard.model';
 import { Invitation } from './invitation.model';
 import { MailMessage } from './mail-message.model';
+import { MitigationEvidence } from './mitigation-evidence.model';
+import { Mitigation } from './mitigation.model';
 import { PasswordReset } from './password-reset.model';
+import { PropellantCautionHistory } from './propellant-caution-history.model';
+import { PropellantCautionOverride } from './propellant-caution-override.model';
+import { RiskMatrix } from './risk-matrix.model';
 import { Session } from './session.model';
 import { Team } from './team.model';
 import { User } from './user.model';
 
 /** Every model and association, in one place. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [Team, User, Invitation, PasswordReset, MailMessage, Session]) model.initModel(sequelize);
+  for (const model of [
+    Team,
+    User,
+    Invitation,
+    PasswordReset,
+    MailMessage,
+    Session,
+    RiskMatrix,
+    Hazard,
+    Mitigation,
+    MitigationEvidence,
+    HazardAcceptance,
+    HazardHistory,
+    PropellantCautionOverride,
+    PropellantCautionHistory,
+  ]) {
+    model.initModel(sequelize);
+  }
 
   Team.hasMany(User, { foreignKey: 'teamId' });
   User.belongsTo(Team, { foreignKey: 'teamId' });
@@ -17,7 +42,57 @@ export function initModels(sequelize: Sequelize) {
   User.hasMany(PasswordReset, { foreignKey: 'userId' });
   PasswordReset.belongsTo(User, { foreignKey: 'userId' });
 
-  return { Team, User, Invitation, PasswordReset, MailMessage, Session };
+
+  Team.hasMany(RiskMatrix, { foreignKey: 'teamId' });
+  RiskMatrix.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+  Team.hasMany(Hazard, { foreignKey: 'teamId' });
+  Hazard.belongsTo(Team, { foreignKey: 'teamId' });
+  Hazard.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+  Hazard.hasMany(Mitigation, { as: 'mitigations', foreignKey: 'hazardId', onDelete: 'CASCADE' });
+  Mitigation.belongsTo(Hazard, { foreignKey: 'hazardId' });
+  Mitigation.hasMany(MitigationEvidence, { as: 'evidence', foreignKey: 'mitigationId', onDelete: 'CASCADE' });
+  MitigationEvidence.belongsTo(Mitigation, { foreignKey: 'mitigationId' });
+  MitigationEvidence.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+  Hazard.hasMany(HazardAcceptance, { as: 'acceptances', foreignKey: 'hazardId', onDelete: 'CASCADE' });
+  HazardAcceptance.belongsTo(User, { foreignKey: 'userId' });
+  Hazard.hasMany(HazardHistory, { as: 'history', foreignKey: 'hazardId', onDelete: 'CASCADE' });
+  HazardHistory.belongsTo(User, { foreignKey: 'userId' });
+  Team.hasMany(PropellantCautionOverride, { foreignKey: 'teamId' });
+  PropellantCautionOverride.belongsTo(User, { as: 'updatedBy', foreignKey: 'updatedById' });
+  Team.hasMany(PropellantCautionHistory, { foreignKey: 'teamId' });
+  PropellantCautionHistory.belongsTo(User, { foreignKey: 'userId' });
+
+  return {
+    Team,
+    User,
+    Invitation,
+    PasswordReset,
+    MailMessage,
+    Session,
+    RiskMatrix,
+    Hazard,
+    Mitigation,
+    MitigationEvidence,
+    HazardAcceptance,
+    HazardHistory,
+    PropellantCautionOverride,
+    PropellantCautionHistory,
+  };
 }
 
-export { Invitation, MailMessage, PasswordReset, Session, Team, User };
+export {
+  Hazard,
+  HazardAcceptance,
+  HazardHistory,
+  Invitation,
+  MailMessage,
+  Mitigation,
+  MitigationEvidence,
+  PasswordReset,
+  PropellantCautionHistory,
+  PropellantCautionOverride,
+  RiskMatrix,
+  Session,
+  Team,
+  User,
+};
