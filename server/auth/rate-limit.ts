@@ -33,3 +33,19 @@ export function signInLimiters(limits: SignInLimits) {
   });
   return [perAddress, perAccount];
 }
+
+/**
+ * Reset-link requests all answer 202, so every one counts: this stops one address from filling someone's
+ * inbox with reset mails. Twenty an hour is far above what a person forgetting a password needs.
+ */
+export function resetRequestLimiter(limits: SignInLimits = { windowMs: 60 * 60 * 1000, limit: 20 }) {
+  return rateLimit({
+    windowMs: limits.windowMs,
+    limit: limits.limit,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) => `reset:${ipKeyGenerator(req.ip ?? 'unknown')}`,
+    handler: (_req, _res, next) =>
+      next(new HttpError(429, 'rate_limited', 'Too many reset requests from here. Wait an hour, then try again.')),
+  });
+}

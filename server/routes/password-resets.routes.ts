@@ -1,6 +1,7 @@
 import { addHours } from 'date-fns';
 import { passwordResetCompleteSchema, passwordResetRequestSchema } from '../../src/contract/people';
 import { hashPassword } from '../auth/passwords';
+import { resetRequestLimiter } from '../auth/rate-limit';
 import { hashToken, newToken } from '../auth/tokens';
 import type { AppDeps } from '../deps';
 import { HttpError } from '../http/errors';
@@ -11,12 +12,14 @@ import { PasswordReset, User } from '../models';
 export const RESET_HOURS = 1;
 
 export function passwordResetRoutes(deps: Pick<AppDeps, 'mailer' | 'config' | 'log'>) {
+  const limiter = resetRequestLimiter();
   return [
     route({
       method: 'post',
       path: '/password-resets',
       access: 'public',
       status: 202,
+      before: [limiter],
       body: passwordResetRequestSchema,
       handler: async ({ body }) => {
         const user = await User.findOne({ where: { email: body.email, active: true } });

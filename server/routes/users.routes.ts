@@ -6,8 +6,8 @@ import { User } from '../models';
 
 const idParams = z.object({ id: z.coerce.number().int().positive('Not a user id') });
 
-async function activeAdminCount(): Promise<number> {
-  const users = await User.findAll({ where: { active: true } });
+async function activeAdminCount(teamId: number): Promise<number> {
+  const users = await User.findAll({ where: { active: true, teamId } });
   return users.filter((u) => u.roles.includes('admin')).length;
 }
 
@@ -36,7 +36,7 @@ export const userRoutes = [
       const wasActiveAdmin = target.active && target.roles.includes('admin');
       const roles = body.roles ?? target.roles;
       const active = body.active ?? target.active;
-      if (wasActiveAdmin && !(active && roles.includes('admin')) && (await activeAdminCount()) <= 1) {
+      if (wasActiveAdmin && !(active && roles.includes('admin')) && (await activeAdminCount(user!.teamId)) <= 1) {
         throw new HttpError(400, 'last_admin', 'This is the last active administrator: make someone else an administrator first.');
       }
       target.roles = roles;

@@ -127,3 +127,17 @@ describe('completing a reset', () => {
     expect(res.body.code).toBe('expired');
   });
 });
+
+describe('reset-link requests are limited per address', () => {
+  it('answers 429 after twenty requests in an hour from one address', async () => {
+    const c = await t.client();
+    const ip = '198.51.100.77';
+    for (let i = 0; i < 20; i++) {
+      await c.post('/api/password-resets', { email: `nobody-${i}@ternvalley.test` }).set('X-Forwarded-For', ip).expect(202);
+    }
+    const refused = await c.post('/api/password-resets', { email: 'pad@ternvalley.test' }).set('X-Forwarded-For', ip).expect(429);
+    expect(refused.body.code).toBe('rate_limited');
+    // Another address is not affected.
+    await c.post('/api/password-resets', { email: 'nobody@ternvalley.test' }).set('X-Forwarded-For', '198.51.100.78').expect(202);
+  });
+});
