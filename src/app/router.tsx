@@ -5,7 +5,12 @@ import { RequestPasswordResetPage } from '../features/auth/components/RequestPas
 import { SetupPage } from '../features/auth/components/SetupPage';
 import { SignInPage } from '../features/auth/components/SignInPage';
 import { LiveCountPage } from '../features/counts/components/LiveCountPage';
+import { EngineeringChecksPage } from '../features/hazards/components/EngineeringChecksPage';
+import { HazardDetailPage } from '../features/hazards/components/HazardDetailPage';
+import { HazardPrintPage, HazardRegisterPrintPage } from '../features/hazards/components/HazardPrintPage';
 import { HazardRegisterPage } from '../features/hazards/components/HazardRegisterPage';
+import { NewHazardPage } from '../features/hazards/components/NewHazardPage';
+import { PropellantLibraryPage, PropellantPage } from '../features/hazards/components/PropellantPages';
 import { HomePage } from '../features/home/components/HomePage';
 import { MailOutboxPage } from '../features/mail/components/MailOutboxPage';
 import { PeoplePage } from '../features/people/components/PeoplePage';
@@ -46,6 +51,13 @@ export const routes: RouteObject[] = [
             children: [
               { index: true, element: <HomePage /> },
               { path: 'hazards', element: <HazardRegisterPage /> },
+              { path: 'hazards/new', element: <NewHazardPage /> },
+              { path: 'hazards/tools', element: <EngineeringChecksPage /> },
+              { path: 'hazards/propellants', element: <PropellantLibraryPage /> },
+              { path: 'hazards/propellants/:id', element: <PropellantPage /> },
+              { path: 'hazards/print', element: <HazardRegisterPrintPage /> },
+              { path: 'hazards/print/:id', element: <HazardPrintPage /> },
+              { path: 'hazards/:id', element: <HazardDetailPage /> },
               { path: 'procedures', element: <ProceduresPage /> },
               { path: 'counts', element: <LiveCountPage /> },
               { path: 'records', element: <RecordsPage /> },
