@@ -14,26 +14,26 @@ import { Session } from './session.model';
 import { Team } from './team.model';
 import { User } from './user.model';
 
+const MODELS = {
+  Team,
+  User,
+  Invitation,
+  PasswordReset,
+  MailMessage,
+  Session,
+  RiskMatrix,
+  Hazard,
+  Mitigation,
+  MitigationEvidence,
+  HazardAcceptance,
+  HazardHistory,
+  PropellantCautionOverride,
+  PropellantCautionHistory,
+};
+
 /** Every model and association, in one place. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [
-    Team,
-    User,
-    Invitation,
-    PasswordReset,
-    MailMessage,
-    Session,
-    RiskMatrix,
-    Hazard,
-    Mitigation,
-    MitigationEvidence,
-    HazardAcceptance,
-    HazardHistory,
-    PropellantCautionOverride,
-    PropellantCautionHistory,
-  ]) {
-    model.initModel(sequelize);
-  }
+  for (const model of Object.values(MODELS)) model.initModel(sequelize);
 
   Team.hasMany(User, { foreignKey: 'teamId' });
   User.belongsTo(Team, { foreignKey: 'teamId' });
@@ -41,7 +41,6 @@ export function initModels(sequelize: Sequelize) {
   Invitation.belongsTo(User, { as: 'invitedBy', foreignKey: 'invitedById' });
   User.hasMany(PasswordReset, { foreignKey: 'userId' });
   PasswordReset.belongsTo(User, { foreignKey: 'userId' });
-
 
   Team.hasMany(RiskMatrix, { foreignKey: 'teamId' });
   RiskMatrix.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
@@ -62,22 +61,7 @@ export function initModels(sequelize: Sequelize) {
   Team.hasMany(PropellantCautionHistory, { foreignKey: 'teamId' });
   PropellantCautionHistory.belongsTo(User, { foreignKey: 'userId' });
 
-  return {
-    Team,
-    User,
-    Invitation,
-    PasswordReset,
-    MailMessage,
-    Session,
-    RiskMatrix,
-    Hazard,
-    Mitigation,
-    MitigationEvidence,
-    HazardAcceptance,
-    HazardHistory,
-    PropellantCautionOverride,
-    PropellantCautionHistory,
-  };
+  return MODELS;
 }
 
 export {
