@@ -122,7 +122,12 @@ export function createApp(deps: AppDeps): HoldfireApp {
   if (existsSync(path.join(clientDir, 'index.html'))) {
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
     // Deep links (e-mailed invitation links, a reload on any page) get the client, which routes itself.
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+    app.get('/{*splat}', (_req, res, next) =>
+      res.sendFile(path.join(clientDir, 'index.html'), (error) => {
+        // The build can vanish while `vite build` rewrites dist/: say so instead of blaming the request.
+        if (error && !res.headersSent) next(new HttpError(503, 'client_unavailable', 'The Holdfire client is being rebuilt. Reload in a moment.'));
+      }),
+    );
   }
   app.use(createErrorHandler((error) => log('unhandled error', error)));
 
