@@ -1,6 +1,7 @@
 import { defineConfig } from '@playwright/test';
 
-export const E2E_PORT = 4310;
+// HOLDFIRE_E2E_PORT lets two checkouts run the browser suite side by side.
+export const E2E_PORT = Number(process.env.HOLDFIRE_E2E_PORT ?? 4310);
 const baseURL = `http://localhost:${E2E_PORT}`;
 
 // Debian's chromium, never a downloaded browser build; flags keep it off the network this machine lacks.

@@ -39,6 +39,9 @@ test.describe('safety officer', () => {
     await page.getByLabel('Residual likelihood').selectOption('D');
     // MIL-STD-882E Table III: 1 x D -> Serious, which needs two different people to accept.
     await page.getByRole('button', { name: 'Save changes' }).click();
+    // The form closes only once the server has saved; the preview inside the form says "Serious" before that.
+    await expect(page.getByRole('button', { name: 'Save changes' })).toHaveCount(0);
+    await expect(page.getByRole('button', { name: 'Edit hazard' })).toBeVisible();
     await expect(page.getByText(/Serious/).first()).toBeVisible();
 
     await page.getByRole('button', { name: 'Start mitigating' }).click();
@@ -46,6 +49,7 @@ test.describe('safety officer', () => {
     await page.getByRole('button', { name: 'Ask for acceptance' }).click();
     await expect(page.getByRole('button', { name: 'Accept as Safety officer' })).toBeVisible();
     await expect(page.getByText('Still missing:')).toBeVisible();
+    await expect(page.getByText('Not changed')).toHaveCount(0);
 
     const id = hazardUrl.split('/').pop();
     const api = await (await page.request.get(`/api/hazards/${id}`)).json();
