@@ -33,6 +33,8 @@ for (const p of pages) {
 
     test(`${p.name}: accessible and screenshotted in both themes at phone and desktop size`, async ({ page, consoleErrors }) => {
       void consoleErrors;
+      // Four loads, four axe runs and four full-page screenshots: more than one ordinary journey's time.
+      test.setTimeout(120_000);
       for (const theme of themes) {
         await page.addInitScript((t) => localStorage.setItem('holdfire.theme', t), theme);
         for (const vp of viewports) {

@@ -22,6 +22,21 @@ function tableRows() {
 }
 
 describe('hazard register', () => {
+  it('folds the select filters behind one button on phones and counts the ones set', async () => {
+    const user = userEvent.setup();
+    server(safety);
+    renderApp('/hazards?status=open&system=engine');
+    const toggle = await screen.findByRole('button', { name: 'Show filters (2 set)' });
+    expect(toggle).toHaveAttribute('aria-expanded', 'false');
+    const panel = document.getElementById(toggle.getAttribute('aria-controls')!)!;
+    // Hidden below md only: the md:grid class shows it on wider screens.
+    expect(panel).toHaveClass('hidden', 'md:grid');
+    expect(within(panel).getByLabelText('Status')).toHaveValue('open');
+    await user.click(toggle);
+    expect(screen.getByRole('button', { name: 'Hide filters (2 set)' })).toHaveAttribute('aria-expanded', 'true');
+    expect(panel).not.toHaveClass('hidden');
+  });
+
   it('counts hazards per matrix cell and switches to residual counts', async () => {
     const user = userEvent.setup();
     server(safety);

@@ -1,4 +1,4 @@
-import { useMemo, useId } from 'react';
+import { useMemo, useId, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { HAZARD_PHASES, HAZARD_SYSTEMS } from '../../../contract/hazards';
 import { Button, buttonClasses } from '../../../components/ui/Button';
@@ -77,6 +77,9 @@ export function HazardRegisterPage() {
   const [params, setParams] = useSearchParams();
   const filters = readFilters(params);
   const searchId = useId();
+  const filtersId = useId();
+  // On a phone the five selects fold away behind one button; from md up they are always shown.
+  const [filtersOpen, setFiltersOpen] = useState(false);
 
   const set = (key: FilterKey | 'mode', value: string | undefined) => {
     setParams(
@@ -99,6 +102,7 @@ export function HazardRegisterPage() {
   const table = useHazardTable(shown);
 
   const active = FILTER_KEYS.filter((k) => filters[k]);
+  const selectFilterCount = (['status', 'system', 'phase', 'propellant', 'risk'] as const).filter((k) => filters[k]).length;
 
   const chipText = (key: FilterKey): string => {
     const v = filters[key] ?? '';
@@ -175,7 +179,17 @@ export function HazardRegisterPage() {
                     className="min-h-12 w-full rounded-md border-2 border-line bg-surface px-3 text-ink placeholder:italic placeholder:text-ink-muted"
                   />
                 </div>
-                <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
+                <Button
+                  variant="secondary"
+                  className="md:hidden"
+                  aria-expanded={filtersOpen}
+                  aria-controls={filtersId}
+                  onClick={() => setFiltersOpen((o) => !o)}
+                >
+                  {filtersOpen ? 'Hide filters' : 'Show filters'}
+                  {selectFilterCount > 0 ? ` (${selectFilterCount} set)` : ''}
+                </Button>
+                <div id={filtersId} className={`${filtersOpen ? 'grid' : 'hidden'} gap-3 sm:grid-cols-2 md:grid xl:grid-cols-3`}>
                   <SelectFilter label="Status" value={filters.status} onChange={(v) => set('status', v)} options={HAZARD_STATUSES.map((s) => ({ value: s, label: HAZARD_STATUS_LABELS[s] }))} />
                   <SelectFilter label="System" value={filters.system} onChange={(v) => set('system', v)} options={HAZARD_SYSTEMS.map((s) => ({ value: s, label: SYSTEM_LABELS[s] }))} />
                   <SelectFilter label="Phase" value={filters.phase} onChange={(v) => set('phase', v)} options={HAZARD_PHASES.map((p) => ({ value: p, label: PHASE_LABELS[p] }))} />

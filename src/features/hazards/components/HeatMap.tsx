@@ -38,7 +38,7 @@ export function HeatMap({ counts, unassessed, mode, onModeChange, selected, onSe
           </caption>
           <thead>
             <tr>
-              <td className="w-[5.5rem] p-1 max-sm:w-[4rem]" />
+              <td className="w-[5.5rem] p-1 max-sm:w-[4.9rem]" />
               {MATRIX.severities.map((s) => (
                 <th key={s.key} scope="col" className="p-1 text-sm font-bold leading-tight">
                   <span className="block">{s.key}</span>

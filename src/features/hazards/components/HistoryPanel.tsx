@@ -3,32 +3,7 @@ import { Loading } from '../../../components/ui/Page';
 import { Time } from '../../../components/ui/Time';
 import { errorMessage } from '../../../lib/api';
 import { useHazardHistory } from '../api/getHazardHistory';
-
-function show(value: unknown): string {
-  if (value === null || value === undefined || value === '') return '—';
-  if (typeof value === 'string') return value;
-  if (Array.isArray(value) && value.every((v) => typeof v === 'string')) return value.join('; ');
-  if (typeof value === 'object') {
-    return Object.entries(value as Record<string, unknown>)
-      .map(([k, v]) => `${k}: ${typeof v === 'string' ? v : JSON.stringify(v)}`)
-      .join('; ');
-  }
-  return String(value);
-}
-
-const FIELD_WORDS: Record<string, string> = {
-  initialSeverity: 'Initial severity',
-  initialLikelihood: 'Initial likelihood',
-  residualSeverity: 'Residual severity',
-  residualLikelihood: 'Residual likelihood',
-};
-
-function fieldName(field: string): string {
-  // 'mitigation:3' or 'mitigation:3.owner'
-  const m = /^mitigation:(\d+)(?:\.(.+))?$/.exec(field);
-  if (m) return `Mitigation ${m[1]}${m[2] ? `, ${m[2]}` : ''}`;
-  return FIELD_WORDS[field] ?? field.charAt(0).toUpperCase() + field.slice(1);
-}
+import { historyFieldName, historyValue } from '../lib/history';
 
 /** Who changed what and when, oldest change last. Readable by every role, auditors included. */
 export function HistoryPanel({ hazardId }: { hazardId: number }) {
@@ -73,9 +48,9 @@ export function HistoryPanel({ hazardId }: { hazardId: number }) {
                 <Time value={h.at} />
               </td>
               <td className="p-2">{h.userName}</td>
-              <td className="p-2">{fieldName(h.field)}</td>
-              <td className="p-2 [overflow-wrap:anywhere]">{show(h.before)}</td>
-              <td className="p-2 [overflow-wrap:anywhere]">{show(h.after)}</td>
+              <td className="p-2">{historyFieldName(h.field)}</td>
+              <td className="p-2 [overflow-wrap:anywhere]">{historyValue(h.field, h.before)}</td>
+              <td className="p-2 [overflow-wrap:anywhere]">{historyValue(h.field, h.after)}</td>
             </tr>
           ))}
         </tbody>
