@@ -8,6 +8,7 @@ import session from 'express-session';
 import helmet from 'helmet';
 import { Server } from 'socket.io';
 import { createPassport } from './auth/passport';
+import { createSessionEnder, sessionRoom, userRoom } from './auth/session-ender';
 import { DEFAULT_SIGN_IN_LIMITS, signInLimiters } from './auth/rate-limit';
 import type { AppDeps } from './deps';
 import { createErrorHandler, HttpError } from './http/errors';
@@ -91,18 +92,20 @@ export function createApp(deps: AppDeps): HoldfireApp {
     getTokenFromRequest: (req) => req.headers['x-csrf-token'] as string | undefined,
   });
 
+  const sessions = createSessionEnder();
   const routes: RouteDef[] = [
     ...healthRoutes,
     ...authRoutes({
       passport,
       limiters: signInLimiters(deps.signInLimits ?? DEFAULT_SIGN_IN_LIMITS),
       generateCsrfToken: (req: Request) => generateToken(req, true),
+      sessions,
     }),
     ...setupRoutes,
-    ...userRoutes,
+    ...userRoutes({ sessions }),
     ...invitationRoutes({ ...deps, log }),
-    ...passwordResetRoutes({ ...deps, log }),
-    ...profileRoutes,
+    ...passwordResetRoutes({ ...deps, log, sessions }),
+    ...profileRoutes({ sessions }),
     ...mailRoutes,
     ...hazardRoutes(),
     ...riskMatrixRoutes(),
@@ -137,12 +140,16 @@ export function createApp(deps: AppDeps): HoldfireApp {
   io.engine.use(passport.initialize());
   io.engine.use(passport.session());
   io.use((socket, next) => {
-    const user = (socket.request as Request).user;
+    const request = socket.request as Request;
+    const user = request.user;
     if (!user) return next(new Error('Sign in to connect.'));
     socket.data.userId = user.id;
+    socket.data.sid = request.sessionID;
     next();
   });
+  sessions.attach(io);
   io.on('connection', (socket) => {
+    void socket.join([sessionRoom(socket.data.sid), userRoom(socket.data.userId)]);
     registerClockHandlers(io, socket);
   });
 

@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import { loginInputSchema } from '../../src/contract/people';
 import { authenticateLocal, logIn, logOut, type HoldfirePassport } from '../auth/passport';
+import type { SessionEnder } from '../auth/session-ender';
 import { HttpError } from '../http/errors';
 import { route } from '../http/route';
 
@@ -8,6 +9,7 @@ export function authRoutes(deps: {
   passport: HoldfirePassport;
   limiters: RequestHandler[];
   generateCsrfToken: (req: Parameters<RequestHandler>[0]) => string;
+  sessions: SessionEnder;
 }) {
   return [
     route({
@@ -35,7 +37,11 @@ export function authRoutes(deps: {
       path: '/auth/logout',
       access: 'public',
       handler: async ({ req }) => {
-        if (req.user) await logOut(req);
+        if (!req.user) return;
+        // Passport gives the session a new id on sign-out: remember the old one to close its sockets.
+        const sid = req.sessionID;
+        await logOut(req);
+        deps.sessions.endSessionSockets(sid, 'signed-out');
       },
     }),
     route({

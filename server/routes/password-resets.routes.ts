@@ -1,3 +1,4 @@
+import type { SessionEnder } from '../auth/session-ender';
 import { addHours } from 'date-fns';
 import { passwordResetCompleteSchema, passwordResetRequestSchema } from '../../src/contract/people';
 import { hashPassword } from '../auth/passwords';
@@ -11,7 +12,7 @@ import { PasswordReset, User } from '../models';
 
 export const RESET_HOURS = 1;
 
-export function passwordResetRoutes(deps: Pick<AppDeps, 'mailer' | 'config' | 'log'>) {
+export function passwordResetRoutes(deps: Pick<AppDeps, 'mailer' | 'config' | 'log'> & { sessions: SessionEnder }) {
   const limiter = resetRequestLimiter();
   return [
     route({
@@ -55,6 +56,8 @@ export function passwordResetRoutes(deps: Pick<AppDeps, 'mailer' | 'config' | 'l
           if (claimed !== 1) throw new HttpError(410, 'expired', 'This reset link has expired or was used already. Ask for a new one.');
           await user.save({ transaction });
         });
+        // A reset means the old password may be known to someone else: end every session it opened.
+        await deps.sessions.endUserSessions(user.id, 'password-reset');
       },
     }),
   ];

@@ -1,3 +1,4 @@
+import type { SessionEnder } from '../auth/session-ender';
 import { passwordChangeSchema, profileUpdateSchema } from '../../src/contract/people';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import { HttpError, notFound } from '../http/errors';
@@ -10,7 +11,7 @@ async function me(id: number): Promise<User> {
   return user;
 }
 
-export const profileRoutes = [
+export const profileRoutes = ({ sessions }: { sessions: SessionEnder }) => [
   route({
     method: 'patch',
     path: '/profile',
@@ -28,7 +29,7 @@ export const profileRoutes = [
     path: '/profile/password',
     access: 'signed-in',
     body: passwordChangeSchema,
-    handler: async ({ body, user }) => {
+    handler: async ({ body, user, req }) => {
       const record = await me(user!.id);
       if (!(await verifyPassword(body.currentPassword, record.passwordHash))) {
         throw new HttpError(400, 'bad_password', 'Your current password is not right.', [
@@ -37,6 +38,8 @@ export const profileRoutes = [
       }
       record.passwordHash = await hashPassword(body.newPassword);
       await record.save();
+      // Whoever knew the old password is signed out elsewhere; this session stays.
+      await sessions.endUserSessions(record.id, 'password-changed', req.sessionID);
     },
   }),
 ];

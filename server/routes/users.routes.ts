@@ -1,3 +1,4 @@
+import type { SessionEnder } from '../auth/session-ender';
 import { z } from 'zod';
 import { updateUserInputSchema } from '../../src/contract/people';
 import { HttpError, notFound } from '../http/errors';
@@ -11,7 +12,7 @@ async function activeAdminCount(teamId: number): Promise<number> {
   return users.filter((u) => u.roles.includes('admin')).length;
 }
 
-export const userRoutes = [
+export const userRoutes = ({ sessions }: { sessions: SessionEnder }) => [
   route({
     method: 'get',
     path: '/users',
@@ -42,6 +43,9 @@ export const userRoutes = [
       target.roles = roles;
       target.active = active;
       await target.save();
+      // A deactivated person is signed out everywhere at once; a role change ends open sockets so they reconnect with the new roles.
+      if (!active) await sessions.endUserSessions(target.id, 'deactivated');
+      else if (body.roles) sessions.endUserSockets(target.id, 'roles-changed');
       return target.toDto();
     },
   }),

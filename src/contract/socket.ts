@@ -20,4 +20,6 @@ export interface ServerToClientEvents {
 
 export interface SocketData {
   userId: number;
+  /** The express-session id the socket was opened with, so signing out closes it. */
+  sid: string;
 }
