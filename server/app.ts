@@ -26,7 +26,9 @@ import { profileRoutes } from './routes/profile.routes';
 import { propellantRoutes } from './routes/propellants.routes';
 import { riskMatrixRoutes } from './routes/risk-matrices.routes';
 import { setupRoutes } from './routes/setup.routes';
+import { uploadRoutes } from './routes/uploads.routes';
 import { userRoutes } from './routes/users.routes';
+import { createUploadStore } from './uploads';
 import './types';
 
 const SESSION_HOURS = 12;
@@ -91,6 +93,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
     getTokenFromRequest: (req) => req.headers['x-csrf-token'] as string | undefined,
   });
 
+  const uploads = createUploadStore(config.dataDir, log);
   const routes: RouteDef[] = [
     ...healthRoutes,
     ...authRoutes({
@@ -104,10 +107,11 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...passwordResetRoutes({ ...deps, log }),
     ...profileRoutes,
     ...mailRoutes,
-    ...hazardRoutes(),
+    ...hazardRoutes({ uploads }),
     ...riskMatrixRoutes(),
     ...propellantRoutes(),
     ...calcRoutes(),
+    ...uploadRoutes({ uploads }),
   ];
 
   const api = express.Router();
