@@ -1,9 +1,7 @@
 import type { NextFunction, Request, Response } from 'express';
 import multer from 'multer';
-import { UPLOAD_MAX_BYTES } from '../../src/contract/uploads';
+import { UPLOAD_MAX_BYTES, UPLOAD_MAX_IN_WORDS } from '../../src/contract/uploads';
 import { badRequest, HttpError } from '../http/errors';
-
-const MB = UPLOAD_MAX_BYTES / 1_000_000;
 
 /**
  * Reads one multipart file into memory (at most 10 MB, one file, a few short text fields). Nothing reaches
@@ -26,8 +24,8 @@ function uploadError(error: unknown, field: string): HttpError {
   if (error instanceof multer.MulterError) {
     switch (error.code) {
       case 'LIMIT_FILE_SIZE':
-        return new HttpError(413, 'file_too_large', `The file is larger than ${MB} MB. Make it smaller (for a photo, a lower resolution) and upload it again.`, [
-          { path: field, message: `At most ${MB} MB.` },
+        return new HttpError(413, 'file_too_large', `The file is larger than ${UPLOAD_MAX_IN_WORDS}. Make it smaller (for a photo, a lower resolution) and upload it again.`, [
+          { path: field, message: `At most ${UPLOAD_MAX_IN_WORDS}.` },
         ]);
       case 'LIMIT_FILE_COUNT':
       case 'LIMIT_UNEXPECTED_FILE':

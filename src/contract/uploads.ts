@@ -5,6 +5,7 @@
 
 /** Largest file accepted, in bytes: 10 MB (decimal, as the screens say it). */
 export const UPLOAD_MAX_BYTES = 10_000_000;
+export const UPLOAD_MAX_IN_WORDS = `${UPLOAD_MAX_BYTES / 1_000_000} MB`;
 
 /**
  * Accepted types. The server decides the type from the file's content, never from the name or the type the
