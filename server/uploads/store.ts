@@ -148,14 +148,17 @@ export function createUploadStore(dataDir: string, log: (message: string, error?
       // Signed-in team members only: never kept by shared caches, and checked again on every view.
       res.setHeader('Cache-Control', 'private, no-cache');
       await new Promise<void>((resolve, reject) => {
-        res.sendFile(pathOf(upload.storedName), { dotfiles: 'deny', lastModified: false, cacheControl: false }, (error?: Error & { code?: string }) => {
+        pathOf(upload.storedName); // refuses a name we did not make
+        // Relative to the uploads folder, so a dot in the data folder's own path (e.g. "e2e/.data") is not a "dotfile".
+        res.sendFile(upload.storedName, { root: dir, dotfiles: 'deny', lastModified: false, cacheControl: false }, (error?: Error & { code?: string }) => {
           if (!error) return resolve();
           if (!res.headersSent) {
             // The JSON error must not go out labelled as the file.
             for (const h of ['Content-Type', 'Content-Disposition', 'Content-Security-Policy']) res.removeHeader(h);
             if (error.code === 'ENOENT') return reject(notFound('The file is missing from storage. Ask an administrator to check the data folder.'));
           }
-          reject(error);
+          // Anything else is ours, not the caller's: a logged 500, not the 4xx status `send` attaches.
+          reject(new Error(`could not send upload ${upload.id}: ${error.message}`, { cause: error }));
         });
       });
     },

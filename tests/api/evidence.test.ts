@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
-import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
@@ -15,8 +16,10 @@ let admin: TestClient;
 let operator: TestClient;
 let auditor: TestClient;
 let outsider: TestClient;
+// The data folder sits under a dot-directory, as the browser suite's e2e/.data does: serving must still work.
+const dotDataDir = mkdtempSync(path.join(tmpdir(), 'holdfire-evidence-'));
 beforeAll(async () => {
-  t = await startTestApp();
+  t = await startTestApp({ env: { HOLDFIRE_DATA_DIR: path.join(dotDataDir, '.data'), DATABASE_URL: `sqlite:${path.join(dotDataDir, '.data', 'holdfire.sqlite')}` } });
   [safety, admin, operator, auditor] = await Promise.all([
     t.client('safety@ternvalley.test'),
     t.client('admin@ternvalley.test'),
@@ -35,11 +38,15 @@ beforeAll(async () => {
   });
   outsider = await t.client('safety@heronflats.test', 'heron-flats-demo');
 });
-afterAll(() => t.stop());
+afterAll(async () => {
+  await t.stop();
+  rmSync(dotDataDir, { recursive: true, force: true });
+});
 afterEach(() => vi.restoreAllMocks());
 
 const PNG = makePng();
-const uploadsDir = () => path.join(t.dataDir, 'uploads');
+const dataDir = () => t.holdfire.config.dataDir;
+const uploadsDir = () => path.join(dataDir(), 'uploads');
 const storedFiles = () => readdirSync(uploadsDir()).sort();
 
 interface Mit {
@@ -166,8 +173,8 @@ describe('file evidence on a mitigation', () => {
     expect(added).toHaveLength(1);
     expect(added[0]).toMatch(/^[0-9a-f]{32}\.png$/);
     expect(added[0]).not.toContain('x.png');
-    expect(existsSync(path.join(t.dataDir, 'x.png'))).toBe(false);
-    expect(existsSync(path.join(t.dataDir, '..', 'x.png'))).toBe(false);
+    expect(existsSync(path.join(dataDir(), 'x.png'))).toBe(false);
+    expect(existsSync(path.join(dataDir(), '..', 'x.png'))).toBe(false);
     expect(existsSync(path.join(uploadsDir(), '..', '..', 'x.png'))).toBe(false);
     const dl = await safety.get(ev.file!.url).expect(200);
     expect(dl.headers['content-disposition']).toBe('inline; filename=x.png');
@@ -293,7 +300,6 @@ describe('downloading a file', () => {
     const res = await upload(safety, id, mitigationId, { bytes: PNG, name: 'a.png', type: 'image/png' }).expect(201);
     const file = mitigationOf(res.body, mitigationId).evidence[0]!.file!;
     const row = await Upload.findByPk(file.id);
-    const { rmSync } = await import('node:fs');
     rmSync(path.join(uploadsDir(), row!.storedName));
     const gone = await auditor.get(file.url).expect(404);
     expect(gone.headers['content-type']).toMatch(/application\/json/);

@@ -23,11 +23,11 @@ function Lines({ title, lines }: { title: string; lines: Line[] }) {
   return (
     <div className="min-w-0">
       <h5 className="font-bold">{title}</h5>
-      <dl className="grid grid-cols-[minmax(0,auto)_minmax(0,1fr)] gap-x-3 gap-y-0.5 text-sm">
+      <dl className="text-sm">
         {lines.map((l) => (
-          <div key={l.label} className="contents">
+          <div key={l.label} className="flex flex-wrap justify-between gap-x-3 border-b border-line-soft py-1 last:border-b-0">
             <dt className="text-ink-muted">{l.label}</dt>
-            <dd className="[overflow-wrap:anywhere]">{l.value}</dd>
+            <dd className="ml-auto text-right font-bold [overflow-wrap:anywhere]">{l.value}</dd>
           </div>
         ))}
       </dl>
@@ -57,7 +57,7 @@ function FileEvidence({ ev }: { ev: EvidenceDto }) {
             src={file.url}
             alt={`Photo: ${ev.label}`}
             loading="lazy"
-            className="block h-auto max-h-40 w-auto max-w-full rounded-md border-2 border-line-soft bg-sunken object-contain sm:max-w-56"
+            className="hf-evidence-image block h-auto max-h-40 w-auto max-w-full rounded-md border-2 border-line-soft bg-sunken object-contain sm:max-w-56"
           />
         </a>
       ) : (
