@@ -35,6 +35,8 @@ export default defineConfig({
           environment: 'jsdom',
           globals: true,
           setupFiles: ['tests/setup-dom.ts'],
+          // userEvent typing in jsdom can pass 5 s on a loaded 2-core machine; this is not a speed test.
+          testTimeout: 20_000,
         },
       },
     ],

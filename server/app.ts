@@ -27,7 +27,9 @@ import { profileRoutes } from './routes/profile.routes';
 import { propellantRoutes } from './routes/propellants.routes';
 import { riskMatrixRoutes } from './routes/risk-matrices.routes';
 import { setupRoutes } from './routes/setup.routes';
+import { uploadRoutes } from './routes/uploads.routes';
 import { userRoutes } from './routes/users.routes';
+import { createUploadStore } from './uploads';
 import './types';
 
 const SESSION_HOURS = 12;
@@ -93,6 +95,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
   });
 
   const sessions = createSessionEnder();
+  const uploads = createUploadStore(config.dataDir, log);
   const routes: RouteDef[] = [
     ...healthRoutes,
     ...authRoutes({
@@ -107,10 +110,11 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...passwordResetRoutes({ ...deps, log, sessions }),
     ...profileRoutes({ sessions }),
     ...mailRoutes,
-    ...hazardRoutes(),
+    ...hazardRoutes({ uploads }),
     ...riskMatrixRoutes(),
     ...propellantRoutes(),
     ...calcRoutes(),
+    ...uploadRoutes({ uploads }),
   ];
 
   const api = express.Router();

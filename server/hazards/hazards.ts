@@ -6,13 +6,27 @@ import { acceptanceProgress } from '../../src/domain/hazards/acceptance';
 import { MatrixKeyError, riskLevel } from '../../src/domain/hazards/matrix';
 import { byPrecedence, checkResidual, type MitigationKind } from '../../src/domain/hazards/mitigation';
 import { badRequest, notFound } from '../http/errors';
-import { Hazard, HazardAcceptance, HazardHistory, Mitigation, MitigationEvidence } from '../models';
+import { Hazard, HazardAcceptance, HazardHistory, Mitigation, MitigationEvidence, Upload, User } from '../models';
+import { uploadDto } from '../uploads';
 import { resolveMatrix, severityOut, type ResolvedMatrix } from './matrices';
 
 export const hazardCode = (n: number) => `HZ-${String(n).padStart(3, '0')}`;
 
 export const HAZARD_INCLUDE = [
-  { model: Mitigation, as: 'mitigations', include: [{ model: MitigationEvidence, as: 'evidence' }] },
+  {
+    model: Mitigation,
+    as: 'mitigations',
+    include: [
+      {
+        model: MitigationEvidence,
+        as: 'evidence',
+        include: [
+          { model: Upload, as: 'upload' },
+          { model: User, as: 'createdBy', attributes: ['id', 'name'] },
+        ],
+      },
+    ],
+  },
   { model: HazardAcceptance, as: 'acceptances' },
 ];
 
@@ -109,7 +123,25 @@ export function residualLevel(h: Hazard, m: ResolvedMatrix): string | null {
 }
 
 function evidenceDto(e: MitigationEvidence): EvidenceDto {
-  return { id: e.id, kind: e.kind, label: e.label, data: e.data, createdAt: e.createdAt.toISOString() };
+  return {
+    id: e.id,
+    kind: e.kind,
+    label: e.label,
+    data: e.data,
+    file: e.upload ? uploadDto(e.upload) : null,
+    addedBy: e.createdBy?.name ?? null,
+    createdAt: e.createdAt.toISOString(),
+  };
+}
+
+/** What the history keeps about a piece of evidence, so a removal still says what was there. */
+export function evidenceFacts(e: MitigationEvidence): Record<string, unknown> {
+  if (e.kind === 'file' && e.upload) {
+    const u = e.upload;
+    return { id: e.id, kind: 'file', label: e.label, name: u.originalName, mediaType: u.mediaType, sizeBytes: u.sizeBytes, sha256: u.sha256 };
+  }
+  const calc = (e.data as { calc?: unknown }).calc;
+  return { id: e.id, kind: e.kind, label: e.label, ...(calc ? { calc } : {}) };
 }
 
 export function mitigationDto(mit: Mitigation): MitigationDto {

@@ -12,6 +12,7 @@ import { PropellantCautionOverride } from './propellant-caution-override.model';
 import { RiskMatrix } from './risk-matrix.model';
 import { Session } from './session.model';
 import { Team } from './team.model';
+import { Upload } from './upload.model';
 import { User } from './user.model';
 
 const MODELS = {
@@ -29,6 +30,7 @@ const MODELS = {
   HazardHistory,
   PropellantCautionOverride,
   PropellantCautionHistory,
+  Upload,
 };
 
 /** Every model and association, in one place. */
@@ -60,6 +62,9 @@ export function initModels(sequelize: Sequelize) {
   PropellantCautionOverride.belongsTo(User, { as: 'updatedBy', foreignKey: 'updatedById' });
   Team.hasMany(PropellantCautionHistory, { foreignKey: 'teamId' });
   PropellantCautionHistory.belongsTo(User, { foreignKey: 'userId' });
+  Team.hasMany(Upload, { foreignKey: 'teamId' });
+  Upload.belongsTo(User, { as: 'uploadedBy', foreignKey: 'uploadedById' });
+  MitigationEvidence.belongsTo(Upload, { as: 'upload', foreignKey: 'uploadId' });
 
   return MODELS;
 }
@@ -78,5 +83,6 @@ export {
   RiskMatrix,
   Session,
   Team,
+  Upload,
   User,
 };

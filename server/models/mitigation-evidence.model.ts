@@ -5,11 +5,13 @@ import {
   type ForeignKey,
   type InferAttributes,
   type InferCreationAttributes,
+  type NonAttribute,
   type Sequelize,
 } from 'sequelize';
 import type { EvidenceKind } from '../../src/contract/hazards';
 import { jsonColumn } from './json-column';
 import type { Mitigation } from './mitigation.model';
+import type { Upload } from './upload.model';
 import type { User } from './user.model';
 
 export class MitigationEvidence extends Model<InferAttributes<MitigationEvidence>, InferCreationAttributes<MitigationEvidence>> {
@@ -18,6 +20,10 @@ export class MitigationEvidence extends Model<InferAttributes<MitigationEvidence
   declare kind: EvidenceKind;
   declare label: string;
   declare data: Record<string, unknown>;
+  /** Kind 'file': the stored file. */
+  declare uploadId: ForeignKey<Upload['id']> | null;
+  declare upload?: NonAttribute<Upload | null>;
+  declare createdBy?: NonAttribute<Pick<User, 'id' | 'name'> | null>;
   declare createdById: ForeignKey<User['id']> | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;

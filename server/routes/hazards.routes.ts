@@ -2,6 +2,8 @@ import type { Transaction } from 'sequelize';
 import {
   acceptanceInputSchema,
   evidenceInputSchema,
+  evidenceParamSchema,
+  fileEvidenceInputSchema,
   hazardCreateInputSchema,
   hazardListQuerySchema,
   hazardUpdateInputSchema,
@@ -19,6 +21,7 @@ import { route } from '../http/route';
 import { runCalc } from '../hazards/calc';
 import {
   checkRiskFields,
+  evidenceFacts,
   findHazard,
   hazardCode,
   hazardDto,
@@ -32,7 +35,8 @@ import {
   type RiskFields,
 } from '../hazards/hazards';
 import { resolveMatrix, severityOut } from '../hazards/matrices';
-import { Hazard, HazardAcceptance, HazardHistory, Mitigation, MitigationEvidence } from '../models';
+import { Hazard, HazardAcceptance, HazardHistory, Mitigation, MitigationEvidence, type Upload } from '../models';
+import { acceptUpload, singleFileUpload, type UploadStore } from '../uploads';
 
 const WRITERS = ['safety', 'admin'] as const;
 const RISK_KEYS = ['matrixId', 'initialSeverity', 'initialLikelihood', 'residualSeverity', 'residualLikelihood'] as const;
@@ -89,7 +93,7 @@ function historyDto(e: HazardHistory): HistoryEntryDto {
   return { id: e.id, userId: e.userId, userName: e.userName, field: e.field, before: e.before, after: e.after, at: e.createdAt.toISOString() };
 }
 
-export function hazardRoutes() {
+export function hazardRoutes({ uploads }: { uploads: UploadStore }) {
   return [
     route({
       method: 'get',
@@ -371,7 +375,10 @@ export function hazardRoutes() {
           const mit = mitigationOf(h, params.mid);
           await recheckResidual(teamId, h, (h.mitigations ?? []).filter((m) => m.id !== mit.id).map((m) => m.kind), t);
           const before = mitigationDto(mit);
+          const files = (mit.evidence ?? []).map((e) => e.upload).filter((u): u is Upload => !!u);
+          // The evidence rows go with the mitigation (ON DELETE CASCADE); their files then go too.
           await mit.destroy({ transaction: t });
+          for (const u of files) await uploads.remove(u, t);
           await record(h.id, actor, `mitigation:${mit.id}`, before, null, t);
           return hazardDtoFor(teamId, h.id, t);
         });
@@ -403,7 +410,57 @@ export function hazardRoutes() {
             },
             { transaction: t },
           );
-          await record(h.id, actor, `mitigation:${mit.id}.evidence`, null, { id: ev.id, calc: body.calc, label: ev.label }, t);
+          await record(h.id, actor, `mitigation:${mit.id}.evidence`, null, { id: ev.id, kind: 'calc', calc: body.calc, label: ev.label }, t);
+          return hazardDtoFor(teamId, h.id, t);
+        });
+      },
+    }),
+    route({
+      method: 'post',
+      path: '/hazards/:id/mitigations/:mid/evidence/files',
+      access: WRITERS,
+      status: 201,
+      params: mitigationParamSchema,
+      // Access is checked before the body is read; the file waits in memory until every check has passed.
+      before: [singleFileUpload('file')],
+      body: fileEvidenceInputSchema,
+      handler: async ({ params, body, req, user }) => {
+        const teamId = user!.teamId;
+        const actor = actorOf(user);
+        const file = await acceptUpload(req.file, 'file');
+        return uploads.transaction(async ({ transaction: t, save }) => {
+          const h = await findHazard(teamId, params.id, t);
+          refuseWhenClosed(h);
+          const mit = mitigationOf(h, params.mid);
+          const upload = await save(file, { teamId, userId: actor.id });
+          const ev = await MitigationEvidence.create(
+            { mitigationId: mit.id, kind: 'file', label: body.label || upload.originalName, data: {}, uploadId: upload.id, createdById: actor.id },
+            { transaction: t },
+          );
+          ev.upload = upload;
+          await record(h.id, actor, `mitigation:${mit.id}.evidence`, null, evidenceFacts(ev), t);
+          return hazardDtoFor(teamId, h.id, t);
+        });
+      },
+    }),
+    route({
+      method: 'delete',
+      path: '/hazards/:id/evidence/:evidenceId',
+      access: WRITERS,
+      params: evidenceParamSchema,
+      handler: async ({ params, user }) => {
+        const teamId = user!.teamId;
+        const actor = actorOf(user);
+        return tx(async (t) => {
+          const h = await findHazard(teamId, params.id, t);
+          refuseWhenClosed(h);
+          const mit = (h.mitigations ?? []).find((m) => (m.evidence ?? []).some((e) => e.id === params.evidenceId));
+          const ev = mit?.evidence?.find((e) => e.id === params.evidenceId);
+          if (!mit || !ev) throw notFound('No such evidence on this hazard.');
+          const before = evidenceFacts(ev);
+          await ev.destroy({ transaction: t });
+          if (ev.upload) await uploads.remove(ev.upload, t);
+          await record(h.id, actor, `mitigation:${mit.id}.evidence`, before, null, t);
           return hazardDtoFor(teamId, h.id, t);
         });
       },

@@ -9,6 +9,7 @@ import { LEVEL_GLYPHS } from '../domain/hazards/matrix';
 import { PROPELLANT_IDS } from '../domain/propellants/library';
 import { ROLES } from '../domain/people/roles';
 import { roleSchema } from './people';
+import type { UploadDto } from './uploads';
 
 // ---------------------------------------------------------------- vocabularies
 
@@ -71,6 +72,10 @@ export const idParamSchema = z.strictObject({ id: z.string().regex(/^[1-9]\d{0,8
 export const mitigationParamSchema = z.strictObject({
   id: z.string().regex(/^[1-9]\d{0,8}$/, 'Not a valid id').transform(Number),
   mid: z.string().regex(/^[1-9]\d{0,8}$/, 'Not a valid id').transform(Number),
+});
+export const evidenceParamSchema = z.strictObject({
+  id: z.string().regex(/^[1-9]\d{0,8}$/, 'Not a valid id').transform(Number),
+  evidenceId: z.string().regex(/^[1-9]\d{0,8}$/, 'Not a valid id').transform(Number),
 });
 
 // ---------------------------------------------------------------- hazards
@@ -262,6 +267,13 @@ export const evidenceInputSchema = z.discriminatedUnion('calc', [
 ]);
 export type EvidenceInput = z.input<typeof evidenceInputSchema>;
 
+/**
+ * POST /api/hazards/:id/mitigations/:mid/evidence/files is multipart/form-data: the file in the field
+ * `file`, and these text fields beside it.
+ */
+export const fileEvidenceInputSchema = z.strictObject({ label: optionalText(200).optional() });
+export type FileEvidenceInput = z.input<typeof fileEvidenceInputSchema>;
+
 /** Frozen calc evidence: what was asked, what came back, and when. */
 export interface CalcEvidenceData {
   calc: CalcName;
@@ -276,8 +288,12 @@ export interface EvidenceDto {
   id: number;
   kind: EvidenceKind;
   label: string;
-  /** For kind 'calc': CalcEvidenceData. File evidence is not built yet. */
+  /** For kind 'calc': CalcEvidenceData; empty for kind 'file'. */
   data: CalcEvidenceData | Record<string, unknown>;
+  /** For kind 'file': the stored file (GET its url to read it). */
+  file: UploadDto | null;
+  /** Who attached it, as named at the time; null if unknown. */
+  addedBy: string | null;
   createdAt: string;
 }
 

@@ -96,6 +96,7 @@ async function toApiError(response: Response): Promise<ApiError> {
 }
 
 export interface RequestOptions<T> {
+  /** Sent as JSON, or as multipart/form-data when it is a FormData. */
   body?: unknown;
   /** Validates the answer against the shared contract, so drift shows up as a clear error, not as undefined. */
   schema?: ZodType<T>;
@@ -109,14 +110,17 @@ type Method = 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
 export async function apiRequest<T = void>(method: Method, path: string, options: RequestOptions<T> = {}): Promise<T> {
   const isWrite = method !== 'GET';
 
+  // A FormData body (file uploads) goes as multipart/form-data: the browser sets that type with its boundary.
+  const isForm = typeof FormData !== 'undefined' && options.body instanceof FormData;
+
   const attempt = async (): Promise<Response> => {
     const headers: Record<string, string> = { Accept: 'application/json' };
-    if (options.body !== undefined) headers['Content-Type'] = 'application/json';
+    if (options.body !== undefined && !isForm) headers['Content-Type'] = 'application/json';
     if (isWrite) headers[CSRF_HEADER] = await getCsrfToken();
     return send(path, {
       method,
       headers,
-      body: options.body === undefined ? undefined : JSON.stringify(options.body),
+      body: options.body === undefined ? undefined : isForm ? (options.body as FormData) : JSON.stringify(options.body),
       signal: options.signal,
     });
   };

@@ -35,6 +35,29 @@ describe('api client', () => {
     expect(all.find(([url]) => url === '/api/things')![1].body).toBe(JSON.stringify({ name: 'Kestrel-2' }));
   });
 
+  it('sends a FormData body as multipart (no JSON type, the CSRF header still set), and resends it on a CSRF retry', async () => {
+    let tokens = 0;
+    const bodies: unknown[] = [];
+    const fetchMock = vi.fn(async (url: string, init: RequestInit) => {
+      if (url === '/api/auth/csrf') return json(200, { csrfToken: `token-${++tokens}` });
+      bodies.push(init.body);
+      if (headerOf(init, 'X-CSRF-Token') === 'token-1') return json(403, { error: 'This form has expired.', code: 'csrf_invalid' });
+      return json(201, { id: 7 });
+    });
+    vi.stubGlobal('fetch', fetchMock);
+    const form = new FormData();
+    form.append('label', 'Manifold photo');
+    form.append('file', new Blob(['not really a png'], { type: 'image/png' }), 'manifold.png');
+
+    await expect(api.post('/api/things/1/files', form)).resolves.toEqual({ id: 7 });
+
+    const writes = calls(fetchMock).filter(([url]) => url === '/api/things/1/files');
+    expect(writes).toHaveLength(2);
+    for (const [, init] of writes) expect(headerOf(init, 'Content-Type')).toBeUndefined();
+    expect(headerOf(writes[1]![1], 'X-CSRF-Token')).toBe('token-2');
+    expect(bodies).toEqual([form, form]);
+  });
+
   it('on 403 csrf_invalid fetches a fresh token and retries exactly once', async () => {
     let tokens = 0;
     const fetchMock = vi.fn(async (url: string, init: RequestInit) => {

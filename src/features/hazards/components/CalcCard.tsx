@@ -7,6 +7,8 @@ import { Form, FormActions, FormError } from '../../../components/ui/Form';
 import { Glyph } from '../../../components/ui/Glyph';
 import { Loading, Section } from '../../../components/ui/Page';
 import { errorMessage, isApiError } from '../../../lib/api';
+import type { CalcName } from '../../../contract/hazards';
+import { AttachCalcResult } from './AttachCalcResult';
 
 export interface CalcField {
   name: string;
@@ -95,12 +97,15 @@ export function CalcCard<R>({
   fields,
   useResult,
   renderResult,
+  attachAs,
 }: {
   title: string;
   formula: ReactNode;
   fields: readonly CalcField[];
   useResult: (inputs: Record<string, string | number> | null) => UseQueryResult<R>;
   renderResult: (result: R) => ReactNode;
+  /** Offer to freeze the result on a hazard as this calculator (for people who keep the register). */
+  attachAs?: CalcName;
 }) {
   const form = useForm<Record<string, string>>({ defaultValues: Object.fromEntries(fields.map((f) => [f.name, f.defaultValue ?? ''])) });
   const [inputs, setInputs] = useState<Record<string, string | number> | null>(null);
@@ -158,6 +163,7 @@ export function CalcCard<R>({
           <div className="flex flex-col gap-3 rounded-md border-2 border-line p-3">
             <h3 className="text-xl font-bold">Result</h3>
             {renderResult(result.data)}
+            {attachAs && inputs ? <AttachCalcResult key={JSON.stringify(inputs)} calc={attachAs} inputs={inputs} /> : null}
           </div>
         ) : null}
       </div>

@@ -1,5 +1,5 @@
 import type { UseQueryResult } from '@tanstack/react-query';
-import type { OxygenCalcResult, PropellantMassCalcResult, QuantityDistanceCalcResult, RiskCalcResult, SurgeCalcResult } from '../../../contract/hazards';
+import type { CalcName, OxygenCalcResult, PropellantMassCalcResult, QuantityDistanceCalcResult, RiskCalcResult, SurgeCalcResult } from '../../../contract/hazards';
 import { Badge } from '../../../components/ui/Badge';
 import { Notice } from '../../../components/ui/Notice';
 import { Page } from '../../../components/ui/Page';
@@ -8,19 +8,20 @@ import { QD_COMBINATIONS, QD_SETTINGS } from '../../../domain/calc/quantityDista
 import { MASS_PROPELLANTS } from '../../../domain/calc/propellantMass';
 import { SURGE_FLUIDS } from '../../../domain/calc/surge';
 import { getLevel } from '../../../domain/hazards/matrix';
+import { useSignedInMe } from '../../../lib/session';
 import { useOxygenCalc, type OxygenCalcInput } from '../api/calcOxygen';
 import { usePropellantMassCalc, type PropellantMassCalcInput } from '../api/calcPropellantMass';
 import { useQuantityDistanceCalc, type QuantityDistanceCalcInput } from '../api/calcQuantityDistance';
 import { useRiskCalc, type RiskCalcInput } from '../api/calcRisk';
 import { useSurgeCalc, type SurgeCalcInput } from '../api/calcSurge';
-import { propellantName } from '../lib/labels';
+import { fmt, QD_COMBINATION_LABELS, QD_DISTANCE_LABELS, QD_SETTING_LABELS } from '../lib/calcEvidence';
+import { canEditHazards, propellantName } from '../lib/labels';
 import { MATRIX } from '../lib/risk';
 import { CalcCard, SourcesAndCautions } from './CalcCard';
 import { HazardsNav } from './HazardsNav';
 import { RiskBadge } from './RiskBadge';
 
 type In = Record<string, string | number> | null;
-const fmt = (n: number, digits = 1) => n.toLocaleString('en-GB', { maximumFractionDigits: digits, minimumFractionDigits: digits });
 
 // The forms' inputs are checked by the server against the contract schemas; these adapters only type them.
 const useRisk = (i: In) => useRiskCalc(i as RiskCalcInput | null) as UseQueryResult<RiskCalcResult>;
@@ -28,19 +29,6 @@ const useMass = (i: In) => usePropellantMassCalc(i as PropellantMassCalcInput | 
 const useQd = (i: In) => useQuantityDistanceCalc(i as QuantityDistanceCalcInput | null) as UseQueryResult<QuantityDistanceCalcResult>;
 const useSurge = (i: In) => useSurgeCalc(i as SurgeCalcInput | null) as UseQueryResult<SurgeCalcResult>;
 const useOxygen = (i: In) => useOxygenCalc(i as OxygenCalcInput | null) as UseQueryResult<OxygenCalcResult>;
-
-const QD_COMBINATION_LABELS: Record<string, string> = {
-  'lox-alcohol': 'LOX / alcohol',
-  'lox-rp1': 'LOX / kerosene (RP-1)',
-  nitromethane: 'Nitromethane',
-};
-const QD_SETTING_LABELS: Record<string, string> = { 'static-test-stand': 'Static test stand', 'range-launch': 'Range launch' };
-const QD_DISTANCE_LABELS: Record<keyof QuantityDistanceCalcResult['distancesM'], string> = {
-  inhabitedBuilding: 'Inhabited building distance (1.2 psi)',
-  publicTrafficRoute: 'Public traffic route (2.3 psi)',
-  intralineUnbarricaded: 'Intraline, unbarricaded (3.5 psi)',
-  intralineBarricaded: 'Intraline, barricaded (12 psi)',
-};
 
 function Out({ label, children }: { label: string; children: React.ReactNode }) {
   return (
@@ -52,6 +40,9 @@ function Out({ label, children }: { label: string; children: React.ReactNode }) 
 }
 
 export function EngineeringChecksPage() {
+  const me = useSignedInMe();
+  const canAttach = canEditHazards(me.roles);
+  const attach = (calc: CalcName) => (canAttach ? calc : undefined);
   return (
     <Page
       title="Engineering checks"
@@ -65,6 +56,7 @@ export function EngineeringChecksPage() {
       <div className="grid gap-6 lg:grid-cols-2">
         <CalcCard
           title="Risk lookup"
+          attachAs={attach('risk')}
           formula={<p>Find the severity column and the likelihood row in the MIL-STD-882E risk assessment matrix; the cell gives the risk level.</p>}
           fields={[
             { name: 'severity', label: 'Severity', options: MATRIX.severities.map((s) => ({ value: s.key, label: `${s.key} ${s.label}` })), defaultValue: '2' },
@@ -90,6 +82,7 @@ export function EngineeringChecksPage() {
         />
         <CalcCard
           title="Oxygen percentage"
+          attachAs={attach('oxygen')}
           formula={
             <p>
               Compare the measured oxygen (% by volume) with OSHA's limits: below 19.5 % is deficient, above 23.5 % enriched. NFPA 53 already treats anything above 21 % as
@@ -128,6 +121,7 @@ export function EngineeringChecksPage() {
         />
         <CalcCard
           title="Propellant mass"
+          attachAs={attach('propellant-mass')}
           formula={
             <p>
               Mass (kg) = density (kg/m³) × tank volume (L) ÷ 1000 × fill (%) ÷ 100. The density is the library value at one reference temperature; an ethanol-water blend is
@@ -153,6 +147,7 @@ export function EngineeringChecksPage() {
         />
         <CalcCard
           title="Quantity-distance (blast)"
+          attachAs={attach('quantity-distance')}
           formula={
             <p>
               TNT equivalent W = propellant mass × TNT equivalence (10 % for LOX with a fuel on a static test stand). Distance D = K × W^(1/3), with K = 40, 24, 18 and 9
@@ -184,6 +179,7 @@ export function EngineeringChecksPage() {
         />
         <CalcCard
           title="Valve surge (water hammer)"
+          attachAs={attach('surge')}
           formula={
             <p>
               Joukowsky: pressure rise = density × wave speed × change in flow velocity. If the valve closes slower than 2 × pipe length ÷ wave speed, the rise shrinks in proportion.

@@ -7,7 +7,9 @@ import { Time } from '../../../components/ui/Time';
 import { byPrecedence, MITIGATION_KIND_INFO } from '../../../domain/hazards/mitigation';
 import { ROLE_LABELS } from '../../../domain/people/roles';
 import { errorMessage } from '../../../lib/api';
+import { formatDateTime } from '../../../lib/dates';
 import type { HazardDto } from '../../../contract/hazards';
+import { formatBytes } from '../../../contract/uploads';
 import { useHazard } from '../api/getHazard';
 import { useHazards } from '../api/listHazards';
 import { VERIFICATION_LABELS } from '../lib/labels';
@@ -132,6 +134,16 @@ export function HazardReport({ hazard: h, headingLevel = 1 }: { hazard: HazardDt
                   <td className="border-2 border-line p-2">
                     {VERIFICATION_LABELS[m.verificationStatus]}
                     {m.verificationMethod ? ` — ${m.verificationMethod}` : ''}
+                    {m.evidence.length ? (
+                      <ul className="mt-1 list-disc pl-5 text-sm">
+                        {m.evidence.map((ev) => (
+                          <li key={ev.id}>
+                            Evidence: {ev.label}
+                            {ev.file ? ` (${ev.file.name}, ${formatBytes(ev.file.sizeBytes)})` : ' (frozen calculation)'}, {formatDateTime(ev.createdAt)}
+                          </li>
+                        ))}
+                      </ul>
+                    ) : null}
                   </td>
                 </tr>
               ))}

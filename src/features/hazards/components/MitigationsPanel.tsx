@@ -14,6 +14,7 @@ import { useAddMitigation } from '../api/addMitigation';
 import { useRemoveMitigation } from '../api/removeMitigation';
 import { useUpdateMitigation } from '../api/updateMitigation';
 import { VERIFICATION_LABELS } from '../lib/labels';
+import { EvidencePanel } from './EvidencePanel';
 import { SelectField, TextAreaField } from './SelectField';
 
 const kindOptions = MITIGATION_KINDS.map((k) => ({ value: k, label: `${MITIGATION_KIND_INFO[k].precedence}. ${MITIGATION_KIND_INFO[k].label}` }));
@@ -123,18 +124,6 @@ export function MitigationsPanel({ hazard, canEdit }: { hazard: HazardDto; canEd
                   <dd>
                     <VerificationBadge status={m.verificationStatus} />
                   </dd>
-                  {m.evidence.length > 0 ? (
-                    <>
-                      <dt className="font-bold">Evidence</dt>
-                      <dd>
-                        <ul className="list-disc pl-5">
-                          {m.evidence.map((ev) => (
-                            <li key={ev.id}>{ev.label || `${ev.kind} evidence`}</li>
-                          ))}
-                        </ul>
-                      </dd>
-                    </>
-                  ) : null}
                 </dl>
                 {canEdit ? (
                   <div className="hf-no-print mt-3 flex flex-wrap gap-2">
@@ -156,6 +145,7 @@ export function MitigationsPanel({ hazard, canEdit }: { hazard: HazardDto; canEd
                     </Button>
                   </div>
                 ) : null}
+                <EvidencePanel hazardId={hazard.id} mitigation={m} canEdit={canEdit} />
               </>
             )}
           </li>
