@@ -2,6 +2,7 @@ import type { QueryInterface, Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
 import * as m0001 from './migrations/0001-foundation';
 import * as m0002 from './migrations/0002-hazards';
+import * as m0003 from './migrations/0003-risk-matrix-lifecycle';
 
 export interface MigrationContext {
   queryInterface: QueryInterface;
@@ -12,6 +13,7 @@ export interface MigrationContext {
 const MIGRATIONS = [
   { name: '0001-foundation', ...m0001 },
   { name: '0002-hazards', ...m0002 },
+  { name: '0003-risk-matrix-lifecycle', ...m0003 },
 ];
 
 export function createMigrator(sequelize: Sequelize) {

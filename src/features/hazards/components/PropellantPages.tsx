@@ -208,8 +208,8 @@ export function PropellantPage() {
         </Section>
         <Section title="Personal protective equipment">
           <ul className="list-disc space-y-1 pl-6">
-            {d.ppe.map((item) => (
-              <li key={item}>{item}</li>
+            {d.ppe.map((item, i) => (
+              <li key={i}>{item.text}</li>
             ))}
           </ul>
           <p className="mt-3 text-ink-muted">
