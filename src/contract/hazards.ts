@@ -373,9 +373,9 @@ const riskLevelSchema = z.strictObject({
 
 const riskMatrixFields = {
   name: text(120, 'a name'),
-  severities: z.array(axisEntrySchema).min(1).max(10),
-  likelihoods: z.array(axisEntrySchema).min(1).max(10),
-  levels: z.array(riskLevelSchema).min(1).max(8),
+  severities: z.array(axisEntrySchema).min(1, 'Add at least one severity category').max(10, 'Use at most 10 severity categories'),
+  likelihoods: z.array(axisEntrySchema).min(1, 'Add at least one likelihood level').max(10, 'Use at most 10 likelihood levels'),
+  levels: z.array(riskLevelSchema).min(1, 'Add at least one risk level').max(8, 'Use at most 8 risk levels'),
   cells: z.record(z.string().max(20), z.record(z.string().max(20), z.string().max(40))),
   /**
    * Level key -> roles that must each sign (different people). Omitted: the two worst levels need

@@ -102,5 +102,9 @@ describe('checkAcceptanceMap', () => {
       { level: 'stop', message: "Level 'stop' needs fewer authorities than the milder level 'go'." },
     ]);
     expect(checkAcceptanceMap({ stop: ['safety'] }, m)).toEqual([{ level: 'go', message: "Level 'go' has no acceptance authority." }]);
+    // Separation of duties: the auditor reads the record (common practice, no source).
+    expect(checkAcceptanceMap({ stop: ['safety', 'auditor'], go: ['safety'] }, m)).toEqual([
+      { level: 'stop', message: "Level 'stop' names the auditor, who reads the record and does not accept risk." },
+    ]);
   });
 });

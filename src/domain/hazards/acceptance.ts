@@ -117,6 +117,8 @@ export function checkAcceptanceMap(map: AcceptanceMap, matrix: RiskMatrix): Acce
       const unknown = roles.filter((r) => !isRole(r));
       if (unknown.length) problems.push({ level: level.key, message: `Level '${level.key}' names unknown roles: ${unknown.join(', ')}.` });
       if (new Set(roles).size !== roles.length) problems.push({ level: level.key, message: `Level '${level.key}' lists a role twice.` });
+      // Auditors read the record; a signature from them would make them part of what they audit.
+      if (roles.includes('auditor')) problems.push({ level: level.key, message: `Level '${level.key}' names the auditor, who reads the record and does not accept risk.` });
     }
   }
   for (const key of Object.keys(map)) {
