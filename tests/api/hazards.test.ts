@@ -1,4 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { checkAcceptanceMap } from '../../src/domain/hazards/acceptance';
+import { validateMatrix } from '../../src/domain/hazards/matrix';
+import { checkLevelPalette } from '../../src/domain/hazards/palette';
 import { startTestApp, type TestApp, type TestClient } from '../helpers/app';
 
 let t: TestApp;
@@ -191,7 +194,16 @@ describe('risk matrices', () => {
 
   it('lists the built-in matrix first and validates team matrices', async () => {
     const list = (await operator.get('/api/risk-matrices').expect(200)).body;
-    expect(list[0]).toMatchObject({ id: 'mil-std-882e', builtIn: true });
+    expect(list[0]).toMatchObject({ id: 'mil-std-882e', builtIn: true, isDefault: true });
+    // Every hazard so far is on the built-in matrix: the 15 demo ones and those made above.
+    expect(list[0].hazardCount).toBe((await operator.get('/api/hazards').expect(200)).body.length);
+    expect(list[0].hazardCount).toBeGreaterThanOrEqual(15);
+    // The demo team's drafted site-check matrix: valid, unused, so still editable.
+    const demo = list.find((m: { id: string }) => m.id === 'marsh-end-site-checks');
+    expect(demo).toMatchObject({ builtIn: false, isDefault: false, retired: false, hazardCount: 0 });
+    expect(validateMatrix(demo)).toEqual([]);
+    expect(checkLevelPalette(demo.levels)).toEqual([]);
+    expect(checkAcceptanceMap(demo.acceptanceMap, demo)).toEqual([]);
     await operator.post('/api/risk-matrices', matrix).expect(403);
     const broken = await safety.post('/api/risk-matrices', { ...matrix, id: 'broken', cells: { likely: { major: 'purple' } } }).expect(400);
     expect(broken.body.details.map((d: { path: string }) => d.path)).toContain('cells.likely.major');
