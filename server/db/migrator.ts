@@ -3,6 +3,7 @@ import { SequelizeStorage, Umzug } from 'umzug';
 import * as m0001 from './migrations/0001-foundation';
 import * as m0002 from './migrations/0002-hazards';
 import * as m0003 from './migrations/0003-uploads';
+import * as m0004 from './migrations/0004-risk-matrix-lifecycle';
 
 export interface MigrationContext {
   queryInterface: QueryInterface;
@@ -14,6 +15,7 @@ const MIGRATIONS = [
   { name: '0001-foundation', ...m0001 },
   { name: '0002-hazards', ...m0002 },
   { name: '0003-uploads', ...m0003 },
+  { name: '0004-risk-matrix-lifecycle', ...m0004 },
 ];
 
 export function createMigrator(sequelize: Sequelize) {

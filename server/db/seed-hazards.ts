@@ -8,7 +8,8 @@ import { BUILT_IN_MATRIX_ID } from '../../src/contract/hazards';
 import type { HazardStatus, MitigationKind } from '../../src/domain/hazards/mitigation';
 import { MIL_STD_882E, riskLevel } from '../../src/domain/hazards/matrix';
 import type { PropellantId } from '../../src/domain/propellants/library';
-import { Hazard, HazardAcceptance, HazardHistory, Mitigation, MitigationEvidence, type User } from '../models';
+import { Hazard, HazardAcceptance, HazardHistory, Mitigation, MitigationEvidence, RiskMatrix, type User } from '../models';
+import type { StoredMatrixDefinition } from '../models/risk-matrix.model';
 import { calcSurge } from '../hazards/calc';
 
 type M = [MitigationKind, string, string, string, VerificationStatus];
@@ -365,6 +366,43 @@ export async function seedDemoHazards(teamId: number, users: User[], transaction
       from = to;
     }
   }
+}
+
+/**
+ * A small team matrix the demo team drafted for walk-round checks of the site, not yet used by any hazard
+ * (so it can still be edited). Invented wording; colours and shapes from the palette.
+ */
+export const DEMO_TEAM_MATRIX: { key: string; name: string; definition: StoredMatrixDefinition } = {
+  key: 'marsh-end-site-checks',
+  name: 'Marsh End site checks, 3 × 3',
+  definition: {
+    severities: [
+      { key: 'S1', label: 'Serious', description: 'Injury needing hospital care, or the stand out of use' },
+      { key: 'S2', label: 'Minor', description: 'First-aid injury or repairable damage' },
+      { key: 'S3', label: 'Slight', description: 'No injury; a nuisance or a delay' },
+    ],
+    likelihoods: [
+      { key: 'L1', label: 'Likely', description: 'Expected on most test days' },
+      { key: 'L2', label: 'Possible', description: 'Has happened at Marsh End or a similar site' },
+      { key: 'L3', label: 'Unlikely', description: 'Not expected over the life of the stand' },
+    ],
+    levels: [
+      { key: 'stop', label: 'Stop', rank: 3, colour: '#A3172C', nightColour: '#FF7A66', glyph: 'octagon' },
+      { key: 'review', label: 'Review', rank: 2, colour: '#7A5C00', nightColour: '#D9B36A', glyph: 'diamond' },
+      { key: 'proceed', label: 'Proceed', rank: 1, colour: '#2B6A4E', nightColour: '#C9A48C', glyph: 'circle' },
+    ],
+    cells: {
+      L1: { S1: 'stop', S2: 'stop', S3: 'review' },
+      L2: { S1: 'stop', S2: 'review', S3: 'proceed' },
+      L3: { S1: 'review', S2: 'proceed', S3: 'proceed' },
+    },
+    acceptanceMap: { stop: ['safety', 'admin'], review: ['safety'], proceed: ['safety'] },
+  },
+};
+
+export async function seedDemoMatrix(teamId: number, users: User[], transaction: Transaction): Promise<void> {
+  const safety = users.find((u) => u.name === SAFETY)!;
+  await RiskMatrix.create({ teamId, key: DEMO_TEAM_MATRIX.key, name: DEMO_TEAM_MATRIX.name, definition: DEMO_TEAM_MATRIX.definition, createdById: safety.id }, { transaction });
 }
 
 function residualKey(d: DemoHazard): string {

@@ -1,7 +1,7 @@
 import type { Role } from '../../src/domain/people/roles';
 import { hashPassword } from '../auth/passwords';
 import { Team, User } from '../models';
-import { seedDemoHazards } from './seed-hazards';
+import { seedDemoHazards, seedDemoMatrix } from './seed-hazards';
 
 /** Demo sign-ins for the invented team; for trying Holdfire only, never for a real test site. */
 export const DEMO_PASSWORD = 'kestrel-demo';
@@ -28,6 +28,7 @@ export async function seedDemo(options: { passwordCost?: number } = {}): Promise
       users.push(await User.create({ ...user, teamId: team.id, passwordHash }, { transaction }));
     }
     await seedDemoHazards(team.id, users, transaction);
+    await seedDemoMatrix(team.id, users, transaction);
   });
   return true;
 }

@@ -1,19 +1,29 @@
-import type { Transaction } from 'sequelize';
+import { fn, col, type Transaction } from 'sequelize';
 import { BUILT_IN_MATRIX_ID, type RiskMatrixDto } from '../../src/contract/hazards';
 import { DEFAULT_ACCEPTANCE_MAP, type AcceptanceMap } from '../../src/domain/hazards/acceptance';
 import { MIL_STD_882E, type RiskMatrix as RiskMatrixDef } from '../../src/domain/hazards/matrix';
 import type { Role } from '../../src/domain/people/roles';
 import { badRequest } from '../http/errors';
-import { RiskMatrix } from '../models';
+import { Hazard, RiskMatrix } from '../models';
 
 export interface ResolvedMatrix {
   matrix: RiskMatrixDef;
   acceptanceMap: AcceptanceMap;
   builtIn: boolean;
   createdAt: Date | null;
+  /** Only ever set on team matrices; the built-in one is the default when no team matrix is. */
+  isDefault: boolean;
+  retiredAt: Date | null;
 }
 
-const BUILT_IN: ResolvedMatrix = { matrix: MIL_STD_882E, acceptanceMap: DEFAULT_ACCEPTANCE_MAP, builtIn: true, createdAt: null };
+const BUILT_IN: ResolvedMatrix = {
+  matrix: MIL_STD_882E,
+  acceptanceMap: DEFAULT_ACCEPTANCE_MAP,
+  builtIn: true,
+  createdAt: null,
+  isDefault: false,
+  retiredAt: null,
+};
 
 /** When a team gives no map: the two worst levels need two people, like the built-in map. */
 export function defaultAcceptanceMapFor(matrix: RiskMatrixDef): AcceptanceMap {
@@ -27,7 +37,14 @@ export function defaultAcceptanceMapFor(matrix: RiskMatrixDef): AcceptanceMap {
 
 export function fromStored(row: RiskMatrix): ResolvedMatrix {
   const { acceptanceMap, ...shape } = row.definition;
-  return { matrix: { id: row.key, name: row.name, ...shape }, acceptanceMap, builtIn: false, createdAt: row.createdAt };
+  return {
+    matrix: { id: row.key, name: row.name, ...shape },
+    acceptanceMap,
+    builtIn: false,
+    createdAt: row.createdAt,
+    isDefault: row.isDefault,
+    retiredAt: row.retiredAt ?? null,
+  };
 }
 
 /** The team's matrix by id, or the built-in one; unknown ids are the caller's mistake (400). */
@@ -43,7 +60,25 @@ export async function listMatrices(teamId: number): Promise<ResolvedMatrix[]> {
   return [BUILT_IN, ...rows.map(fromStored)];
 }
 
-export function toMatrixDto(m: ResolvedMatrix): RiskMatrixDto {
+/** The matrix a new hazard gets when none is named: the team's chosen default, else the built-in one. */
+export async function defaultMatrixId(teamId: number, transaction?: Transaction): Promise<string> {
+  const row = await RiskMatrix.findOne({ where: { teamId, isDefault: true, retiredAt: null }, transaction });
+  return row ? row.key : BUILT_IN_MATRIX_ID;
+}
+
+/** Hazards per matrix id for one team. */
+export async function hazardCounts(teamId: number, transaction?: Transaction): Promise<Map<string, number>> {
+  const rows = (await Hazard.findAll({
+    where: { teamId },
+    attributes: ['matrixId', [fn('COUNT', col('id')), 'n']],
+    group: ['matrixId'],
+    raw: true,
+    transaction,
+  })) as unknown as { matrixId: string; n: number | string }[];
+  return new Map(rows.map((r) => [r.matrixId, Number(r.n)]));
+}
+
+export function toMatrixDto(m: ResolvedMatrix, hazardCount = 0, teamHasDefault = false): RiskMatrixDto {
   const acceptanceMap: Record<string, Role[]> = {};
   for (const [k, v] of Object.entries(m.acceptanceMap)) acceptanceMap[k] = [...v];
   return {
@@ -56,6 +91,10 @@ export function toMatrixDto(m: ResolvedMatrix): RiskMatrixDto {
     cells: m.matrix.cells,
     acceptanceMap,
     createdAt: m.createdAt ? m.createdAt.toISOString() : null,
+    isDefault: m.builtIn ? !teamHasDefault : m.isDefault && m.retiredAt === null,
+    retired: m.retiredAt !== null,
+    retiredAt: m.retiredAt ? m.retiredAt.toISOString() : null,
+    hazardCount,
   };
 }
 

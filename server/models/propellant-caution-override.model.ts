@@ -7,7 +7,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
-import type { HandlingCaution } from '../../src/domain/propellants/library';
+import type { HandlingCaution, PpeItem } from '../../src/domain/propellants/library';
 import { jsonColumn } from './json-column';
 import type { Team } from './team.model';
 import type { User } from './user.model';
@@ -20,8 +20,9 @@ export class PropellantCautionOverride extends Model<
   declare id: CreationOptional<number>;
   declare teamId: ForeignKey<Team['id']>;
   declare propellantId: string;
+  /** Rows written before sources were kept may lack `source`, and their PPE may be plain strings. */
   declare cautions: HandlingCaution[];
-  declare ppe: string[] | null;
+  declare ppe: (PpeItem | string)[] | null;
   declare updatedById: ForeignKey<User['id']> | null;
   declare updatedByName: string;
   declare createdAt: CreationOptional<Date>;
@@ -33,7 +34,7 @@ export class PropellantCautionOverride extends Model<
         id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
         propellantId: { type: DataTypes.STRING(40), allowNull: false },
         cautions: jsonColumn<HandlingCaution[]>('cautions', []),
-        ppe: { ...jsonColumn<string[] | null>('ppe', null), allowNull: true },
+        ppe: { ...jsonColumn<(PpeItem | string)[] | null>('ppe', null), allowNull: true },
         updatedByName: { type: DataTypes.STRING(120), allowNull: false },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

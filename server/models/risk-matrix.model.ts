@@ -23,6 +23,8 @@ export class RiskMatrix extends Model<InferAttributes<RiskMatrix>, InferCreation
   declare name: string;
   declare definition: StoredMatrixDefinition;
   declare createdById: ForeignKey<User['id']> | null;
+  declare retiredAt: CreationOptional<Date | null>;
+  declare isDefault: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -39,6 +41,8 @@ export class RiskMatrix extends Model<InferAttributes<RiskMatrix>, InferCreation
           cells: {},
           acceptanceMap: {},
         }),
+        retiredAt: { type: DataTypes.DATE, allowNull: true },
+        isDefault: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

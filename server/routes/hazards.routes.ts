@@ -34,7 +34,7 @@ import {
   type Actor,
   type RiskFields,
 } from '../hazards/hazards';
-import { resolveMatrix, severityOut } from '../hazards/matrices';
+import { defaultMatrixId, resolveMatrix, severityOut, type ResolvedMatrix } from '../hazards/matrices';
 import { Hazard, HazardAcceptance, HazardHistory, Mitigation, MitigationEvidence, type Upload } from '../models';
 import { acceptUpload, singleFileUpload, type UploadStore } from '../uploads';
 
@@ -75,6 +75,13 @@ function kindsOf(h: Hazard): MitigationKind[] {
 async function recheckResidual(teamId: number, h: Hazard, kinds: MitigationKind[], t: Transaction) {
   if (h.residualLikelihood === null) return;
   await checkRiskFields(teamId, riskFieldsOf(h), kinds, t);
+}
+
+function refuseRetired(m: ResolvedMatrix) {
+  if (m.retiredAt !== null) {
+    const message = `The matrix '${m.matrix.name}' is retired: choose another matrix for this assessment.`;
+    throw badRequest(message, 'matrix_retired', [{ path: 'matrixId', message }]);
+  }
 }
 
 function refuseWhenClosed(h: Hazard) {
@@ -137,16 +144,16 @@ export function hazardRoutes({ uploads }: { uploads: UploadStore }) {
       handler: async ({ body, user }) => {
         const teamId = user!.teamId;
         const actor = actorOf(user);
-        const risk: RiskFields = {
-          matrixId: body.matrixId,
-          initialSeverity: body.initialSeverity,
-          initialLikelihood: body.initialLikelihood,
-          residualSeverity: body.residualSeverity ?? null,
-          residualLikelihood: body.residualLikelihood ?? null,
-        };
         return tx(async (t) => {
+          const risk: RiskFields = {
+            matrixId: body.matrixId ?? (await defaultMatrixId(teamId, t)),
+            initialSeverity: body.initialSeverity,
+            initialLikelihood: body.initialLikelihood,
+            residualSeverity: body.residualSeverity ?? null,
+            residualLikelihood: body.residualLikelihood ?? null,
+          };
           // A new hazard has no mitigations, so a lowered residual is refused here.
-          await checkRiskFields(teamId, risk, [], t);
+          refuseRetired(await checkRiskFields(teamId, risk, [], t));
           const last = (await Hazard.max('number', { where: { teamId }, transaction: t })) as number | null;
           const h = await Hazard.create(
             { ...body, ...risk, teamId, number: (last ?? 0) + 1, createdById: actor.id },
@@ -176,7 +183,11 @@ export function hazardRoutes({ uploads }: { uploads: UploadStore }) {
           if (riskChanged && LOCKED.includes(h.status)) {
             throw conflict(`This hazard's risk is ${h.status}. Reopen it before changing the assessment.`, 'hazard_locked');
           }
-          if (riskChanged) await checkRiskFields(teamId, risk, kindsOf(h), t);
+          if (riskChanged) {
+            const m = await checkRiskFields(teamId, risk, kindsOf(h), t);
+            // Hazards already on a retired matrix keep it; none may move onto one.
+            if (risk.matrixId !== riskBefore.matrixId) refuseRetired(m);
+          }
 
           const shown = (key: string, value: unknown) =>
             (key === 'initialSeverity' || key === 'residualSeverity') && typeof value === 'string' ? severityOut(risk.matrixId, value) : value;

@@ -1,7 +1,18 @@
 import { propellantCautionsInputSchema, propellantParamSchema, type HistoryEntryDto, type PropellantDto } from '../../src/contract/hazards';
-import { PROPELLANT_IDS, PROPELLANTS, type PropellantId } from '../../src/domain/propellants/library';
+import { PROPELLANT_IDS, PROPELLANTS, type HandlingCaution, type PpeItem, type PropellantId } from '../../src/domain/propellants/library';
 import { route } from '../http/route';
 import { PropellantCautionHistory, PropellantCautionOverride } from '../models';
+
+// Edits saved before each item kept its source say so rather than inventing one.
+const SOURCE_NOT_RECORDED = 'not recorded (edited before sources were kept)';
+const cautionOut = (c: Partial<HandlingCaution> & Pick<HandlingCaution, 'key' | 'severity' | 'text'>) => ({
+  key: c.key,
+  severity: c.severity,
+  text: c.text,
+  source: c.source ?? SOURCE_NOT_RECORDED,
+});
+const ppeOut = (item: PpeItem | string): PpeItem =>
+  typeof item === 'string' ? { text: item, source: SOURCE_NOT_RECORDED } : { text: item.text, source: item.source };
 
 function toDto(id: PropellantId, override: PropellantCautionOverride | null): PropellantDto {
   const p = PROPELLANTS[id];
@@ -11,8 +22,8 @@ function toDto(id: PropellantId, override: PropellantCautionOverride | null): Pr
     role: p.role,
     state: p.state,
     properties: p.properties.map((v) => ({ ...v, value: typeof v.value === 'number' ? v.value : [v.value[0], v.value[1]] })),
-    cautions: (override?.cautions ?? p.cautions).map((c) => ({ ...c })),
-    ppe: [...(override?.ppe ?? p.ppe)],
+    cautions: (override?.cautions ?? p.cautions).map(cautionOut),
+    ppe: (override?.ppe ?? p.ppe).map(ppeOut),
     cautionsEdited: override !== null,
     cautionsEditedBy: override?.updatedByName ?? null,
     cautionsEditedAt: override ? override.updatedAt.toISOString() : null,
@@ -53,6 +64,8 @@ export function propellantRoutes() {
           const before = { cautions: current.cautions, ppe: current.ppe };
           const ppe = body.ppe ?? current.ppe;
           const after = { cautions: body.cautions, ppe };
+          // Saving without a change leaves no history line.
+          if (JSON.stringify(before) === JSON.stringify(after)) return current;
           if (existing) {
             existing.cautions = body.cautions;
             existing.ppe = ppe;

@@ -10,7 +10,9 @@ import { HazardDetailPage } from '../features/hazards/components/HazardDetailPag
 import { HazardPrintPage, HazardRegisterPrintPage } from '../features/hazards/components/HazardPrintPage';
 import { HazardRegisterPage } from '../features/hazards/components/HazardRegisterPage';
 import { NewHazardPage } from '../features/hazards/components/NewHazardPage';
-import { PropellantLibraryPage, PropellantPage } from '../features/hazards/components/PropellantPages';
+import { PropellantCautionsPage, PropellantLibraryPage, PropellantPage } from '../features/hazards/components/PropellantPages';
+import { EditRiskMatrixPage, NewRiskMatrixPage } from '../features/hazards/components/RiskMatrixEditPages';
+import { RiskMatricesPage, RiskMatrixPage } from '../features/hazards/components/RiskMatrixPages';
 import { HomePage } from '../features/home/components/HomePage';
 import { MailOutboxPage } from '../features/mail/components/MailOutboxPage';
 import { PeoplePage } from '../features/people/components/PeoplePage';
@@ -55,6 +57,11 @@ export const routes: RouteObject[] = [
               { path: 'hazards/tools', element: <EngineeringChecksPage /> },
               { path: 'hazards/propellants', element: <PropellantLibraryPage /> },
               { path: 'hazards/propellants/:id', element: <PropellantPage /> },
+              { path: 'hazards/propellants/:id/cautions', element: <PropellantCautionsPage /> },
+              { path: 'hazards/matrices', element: <RiskMatricesPage /> },
+              { path: 'hazards/matrices/new', element: <NewRiskMatrixPage /> },
+              { path: 'hazards/matrices/:id', element: <RiskMatrixPage /> },
+              { path: 'hazards/matrices/:id/edit', element: <EditRiskMatrixPage /> },
               { path: 'hazards/print', element: <HazardRegisterPrintPage /> },
               { path: 'hazards/print/:id', element: <HazardPrintPage /> },
               { path: 'hazards/:id', element: <HazardDetailPage /> },

@@ -106,7 +106,8 @@ export const hazardCreateInputSchema = z.strictObject({
   effects: hazardFields.effects.default([]),
   propellants: hazardFields.propellants.default([]),
   energies: hazardFields.energies.default([]),
-  matrixId: hazardFields.matrixId.default(BUILT_IN_MATRIX_ID),
+  /** Omitted: the team's default matrix (the built-in one unless the team chose another). */
+  matrixId: hazardFields.matrixId.optional(),
   initialSeverity: hazardFields.initialSeverity,
   initialLikelihood: hazardFields.initialLikelihood,
   residualSeverity: hazardFields.residualSeverity.optional(),
@@ -364,9 +365,21 @@ export interface HistoryEntryDto {
 
 // ---------------------------------------------------------------- risk matrices
 
-const axisEntrySchema = z.strictObject({ key: z.string().trim().min(1).max(20), label: text(80, 'a label') });
+/** Keys appear in cell paths ("cells.C.2") and filters, so they stay short and plain. */
+const axisKeyText = z
+  .string()
+  .trim()
+  .regex(/^[A-Za-z0-9][A-Za-z0-9-]{0,19}$/, 'Use letters, digits and dashes (up to 20 characters)');
+const axisEntrySchema = z.strictObject({
+  key: axisKeyText,
+  label: text(80, 'a name'),
+  description: optionalText(300).optional(),
+});
 const riskLevelSchema = z.strictObject({
-  key: z.string().trim().min(1).max(40),
+  key: z
+    .string()
+    .trim()
+    .regex(/^[a-z0-9][a-z0-9-]{0,39}$/, 'Use lower-case letters, digits and dashes (up to 40 characters)'),
   label: text(80, 'a label'),
   rank: z.number().int().min(-100).max(100),
   colour: z.string().max(7),
@@ -374,32 +387,50 @@ const riskLevelSchema = z.strictObject({
   glyph: z.enum(LEVEL_GLYPHS).optional(),
 });
 
-/** POST /api/risk-matrices. Structural checks here; validateMatrix then reports the rest as details. */
-export const riskMatrixInputSchema = z.strictObject({
-  id: matrixIdSchema.refine((id) => id !== BUILT_IN_MATRIX_ID, 'That id is the built-in matrix'),
+const riskMatrixFields = {
   name: text(120, 'a name'),
-  severities: z.array(axisEntrySchema).min(1).max(10),
-  likelihoods: z.array(axisEntrySchema).min(1).max(10),
-  levels: z.array(riskLevelSchema).min(1).max(8),
+  severities: z.array(axisEntrySchema).min(1, 'Add at least one severity category').max(10, 'Use at most 10 severity categories'),
+  likelihoods: z.array(axisEntrySchema).min(1, 'Add at least one likelihood level').max(10, 'Use at most 10 likelihood levels'),
+  levels: z.array(riskLevelSchema).min(1, 'Add at least one risk level').max(8, 'Use at most 8 risk levels'),
   cells: z.record(z.string().max(20), z.record(z.string().max(20), z.string().max(40))),
   /**
    * Level key -> roles that must each sign (different people). Omitted: the two worst levels need
    * safety + admin, the rest safety.
    */
-  acceptanceMap: z.record(z.string().max(40), z.array(roleSchema).min(1).max(ROLES.length)).optional(),
+  acceptanceMap: z.record(z.string().max(40), z.array(roleSchema).min(1, 'Choose at least one role').max(ROLES.length)).optional(),
+};
+
+/**
+ * POST /api/risk-matrices. Structural checks here; the server then runs validateMatrix, checkLevelPalette
+ * and checkAcceptanceMap and reports what they find as details (the client runs the same checks first).
+ */
+export const riskMatrixInputSchema = z.strictObject({
+  id: matrixIdSchema.refine((id) => id !== BUILT_IN_MATRIX_ID, 'That id is the built-in matrix'),
+  ...riskMatrixFields,
 });
 export type RiskMatrixInput = z.input<typeof riskMatrixInputSchema>;
+
+/** PUT /api/risk-matrices/:id replaces a team matrix no hazard has been assessed with yet. */
+export const riskMatrixUpdateInputSchema = z.strictObject(riskMatrixFields);
+export type RiskMatrixUpdateInput = z.input<typeof riskMatrixUpdateInputSchema>;
 
 export interface RiskMatrixDto {
   id: string;
   name: string;
   builtIn: boolean;
-  severities: { key: string; label: string }[];
-  likelihoods: { key: string; label: string }[];
+  severities: { key: string; label: string; description?: string }[];
+  likelihoods: { key: string; label: string; description?: string }[];
   levels: { key: string; label: string; rank: number; colour: string; nightColour?: string; glyph?: string }[];
   cells: Record<string, Record<string, string>>;
   acceptanceMap: Record<string, z.infer<typeof roleSchema>[]>;
   createdAt: string | null;
+  /** New hazards use the team's default matrix unless another is chosen. */
+  isDefault: boolean;
+  /** A retired matrix is kept for the hazards assessed with it but offered for no new assessment. */
+  retired: boolean;
+  retiredAt: string | null;
+  /** Hazards of the team assessed with this matrix; while above 0 the matrix cannot change. */
+  hazardCount: number;
 }
 
 // ---------------------------------------------------------------- propellants
@@ -408,12 +439,29 @@ export const cautionSchema = z.strictObject({
   key: z.string().trim().regex(/^[a-z0-9][a-z0-9-]{0,59}$/, 'Use lower-case letters, digits and dashes'),
   severity: z.enum(['warning', 'caution']),
   text: text(2000, 'the caution text'),
+  /** Every caution says where it comes from ("common practice, no source" is an honest answer). */
+  source: text(300, 'where this comes from'),
 });
 
-/** PATCH /api/propellants/:id/cautions replaces the team's cautions (and PPE, if sent). */
+export const ppeItemSchema = z.strictObject({
+  text: text(300, 'the PPE item'),
+  source: text(300, 'where this comes from'),
+});
+
+/** PATCH /api/propellants/:id/cautions replaces the team's cautions (and PPE, if sent), in the order given. */
 export const propellantCautionsInputSchema = z.strictObject({
-  cautions: z.array(cautionSchema).min(1, 'Keep at least one caution').max(30),
-  ppe: z.array(text(300, 'a PPE item')).max(30).optional(),
+  cautions: z
+    .array(cautionSchema)
+    .min(1, 'Keep at least one warning or caution')
+    .max(30, 'List at most 30')
+    .superRefine((items, ctx) => {
+      const seen = new Set<string>();
+      items.forEach((c, i) => {
+        if (seen.has(c.key)) ctx.addIssue({ code: 'custom', path: [i, 'key'], message: `Two items share the key '${c.key}'` });
+        seen.add(c.key);
+      });
+    }),
+  ppe: z.array(ppeItemSchema).max(30, 'List at most 30').optional(),
 });
 export type PropellantCautionsInput = z.input<typeof propellantCautionsInputSchema>;
 
@@ -425,8 +473,8 @@ export interface PropellantDto {
   role: 'oxidiser' | 'fuel' | 'pressurant' | 'inert-cryogen';
   state: 'cryogenic-liquid' | 'liquid' | 'liquefied-gas' | 'compressed-gas';
   properties: { key: string; label: string; value: number | [number, number]; unit: string; source: string; basis: string }[];
-  cautions: { key: string; severity: 'warning' | 'caution'; text: string }[];
-  ppe: string[];
+  cautions: { key: string; severity: 'warning' | 'caution'; text: string; source: string }[];
+  ppe: { text: string; source: string }[];
   /** True when the team's safety officer has edited the library's cautions. */
   cautionsEdited: boolean;
   cautionsEditedBy: string | null;

@@ -31,6 +31,21 @@ describe('propellant library structure', () => {
     }
   });
 
+  it.each(PROPELLANT_IDS)('%s: every caution and PPE item names where it comes from', (id) => {
+    for (const c of PROPELLANTS[id].cautions) expect(c.source.trim(), c.key).not.toBe('');
+    for (const item of PROPELLANTS[id].ppe) expect(item.source.trim(), item.text).not.toBe('');
+  });
+
+  it('cites the cleaning standards and the oxygen thresholds where a caution rests on them', () => {
+    const source = (id: PropellantId, key: string) => PROPELLANTS[id].cautions.find((c) => c.key === key)?.source;
+    expect(source('lox', 'clean-for-oxygen')).toBe('CGA G-4.1; ASTM G93'); // check-values section 4
+    expect(source('lox', 'oxygen-enriched-atmosphere')).toBe('OSHA 29 CFR 1910.146(b); NFPA 53'); // check-values section 4
+    expect(source('gn2', 'asphyxiation')).toMatch(/OSHA 29 CFR 1910\.146\(b\).*19\.5 %/); // check-values section 4
+    expect(source('ethanol', 'flammable-vapour')).toBe('NIOSH Pocket Guide to Chemical Hazards, ethyl alcohol');
+    // A rule of thumb says so rather than borrowing a source.
+    expect(source('lox', 'cryogenic-burn')).toBe('common practice, no source');
+  });
+
   it.each(PROPELLANT_IDS)('%s: has at least one warning and a PPE list', (id) => {
     expect(cautionsBySeverity(id, 'warning').length).toBeGreaterThan(0);
     expect(PROPELLANTS[id].ppe.length).toBeGreaterThan(0);

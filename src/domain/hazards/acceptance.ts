@@ -98,31 +98,47 @@ export function acceptanceProgress(
   return { complete: missingRoles.length === 0, missingRoles, problems: signatureProblems(required, signatures, missingRoles) };
 }
 
+export interface AcceptanceMapProblem {
+  /** The level the problem is about, or null when it concerns the map as a whole. */
+  level: string | null;
+  message: string;
+}
+
 /**
  * Checks a team's map against its matrix: every level has authorities, roles
  * are known, and a worse level never needs fewer roles than a milder one.
  */
-export function validateAcceptanceMap(map: AcceptanceMap, matrix: RiskMatrix): string[] {
-  const problems: string[] = [];
+export function checkAcceptanceMap(map: AcceptanceMap, matrix: RiskMatrix): AcceptanceMapProblem[] {
+  const problems: AcceptanceMapProblem[] = [];
   for (const level of matrix.levels) {
     const roles = map[level.key];
-    if (!roles || roles.length === 0) problems.push(`Level '${level.key}' has no acceptance authority.`);
+    if (!roles || roles.length === 0) problems.push({ level: level.key, message: `Level '${level.key}' has no acceptance authority.` });
     else {
       const unknown = roles.filter((r) => !isRole(r));
-      if (unknown.length) problems.push(`Level '${level.key}' names unknown roles: ${unknown.join(', ')}.`);
-      if (new Set(roles).size !== roles.length) problems.push(`Level '${level.key}' lists a role twice.`);
+      if (unknown.length) problems.push({ level: level.key, message: `Level '${level.key}' names unknown roles: ${unknown.join(', ')}.` });
+      if (new Set(roles).size !== roles.length) problems.push({ level: level.key, message: `Level '${level.key}' lists a role twice.` });
+      // Auditors read the record; a signature from them would make them part of what they audit.
+      if (roles.includes('auditor')) problems.push({ level: level.key, message: `Level '${level.key}' names the auditor, who reads the record and does not accept risk.` });
     }
   }
   for (const key of Object.keys(map)) {
-    if (!matrix.levels.some((l) => l.key === key)) problems.push(`The map names level '${key}', which the matrix does not have.`);
+    if (!matrix.levels.some((l) => l.key === key)) problems.push({ level: null, message: `The map names level '${key}', which the matrix does not have.` });
   }
   const ordered = [...matrix.levels].sort((a, b) => a.rank - b.rank);
   for (let i = 1; i < ordered.length; i++) {
     const milder = map[ordered[i - 1].key] ?? [];
     const worse = map[ordered[i].key] ?? [];
     if (!milder.every((r) => worse.includes(r))) {
-      problems.push(`Level '${ordered[i].key}' needs fewer authorities than the milder level '${ordered[i - 1].key}'.`);
+      problems.push({
+        level: ordered[i].key,
+        message: `Level '${ordered[i].key}' needs fewer authorities than the milder level '${ordered[i - 1].key}'.`,
+      });
     }
   }
   return problems;
+}
+
+/** checkAcceptanceMap as plain messages. */
+export function validateAcceptanceMap(map: AcceptanceMap, matrix: RiskMatrix): string[] {
+  return checkAcceptanceMap(map, matrix).map((p) => p.message);
 }

@@ -7,6 +7,8 @@ import { isHexColour } from './contrast';
 export interface AxisEntry {
   key: string;
   label: string;
+  /** What the category or level means for this team, in its own words. */
+  description?: string;
 }
 
 /** Shapes drawn beside the label so a level is never told by colour alone. */
@@ -106,7 +108,10 @@ export type MatrixProblemCode =
   | 'missing-cell'
   | 'unknown-level'
   | 'unknown-row'
-  | 'unknown-column';
+  | 'unknown-column'
+  | 'off-palette'
+  | 'duplicate-colour'
+  | 'duplicate-glyph';
 
 export interface MatrixProblem {
   code: MatrixProblemCode;

@@ -40,6 +40,14 @@ export interface HandlingCaution {
   key: string;
   severity: CautionSeverity;
   text: string;
+  /** Where the caution comes from; "common practice, no source" for a trade rule of thumb. */
+  source: string;
+}
+
+/** One item of protective equipment, with where the advice comes from. */
+export interface PpeItem {
+  text: string;
+  source: string;
 }
 
 export interface Propellant {
@@ -49,7 +57,7 @@ export interface Propellant {
   state: PhysicalState;
   properties: readonly PropertyValue[];
   cautions: readonly HandlingCaution[];
-  ppe: readonly string[];
+  ppe: readonly PpeItem[];
 }
 
 export const PROPELLANT_SOURCES = {
@@ -69,6 +77,9 @@ export const PROPELLANT_SOURCES = {
   cleaning: 'CGA G-4.1; ASTM G93',
   keroseneDensity: 'derived from the NIOSH Pocket Guide specific gravity 0.81',
   memory: 'from memory',
+  practice: 'common practice, no source',
+  oxygenThresholds: 'OSHA 29 CFR 1910.146(b); NFPA 53',
+  oxygenDeficient: 'OSHA 29 CFR 1910.146(b) (oxygen-deficient below 19.5 %)',
 } as const;
 
 const S = PROPELLANT_SOURCES;
@@ -96,6 +107,7 @@ const CRYO_BURN: HandlingCaution = {
   text:
     'Extremely cold liquid and vapour freeze skin and eyes on contact, and cold metal sticks to bare skin. ' +
     'Splashes can run into gloves and boots and stay there.',
+  source: S.practice,
 };
 const TRAPPED_LIQUID: HandlingCaution = {
   key: 'trapped-cryogen',
@@ -103,6 +115,7 @@ const TRAPPED_LIQUID: HandlingCaution = {
   text:
     'Liquid trapped between two closed valves boils and builds pressure until something bursts. ' +
     'Every section that can be closed off needs a relief device.',
+  source: S.practice,
 };
 const COLD_EMBRITTLEMENT: HandlingCaution = {
   key: 'cold-embrittlement',
@@ -110,6 +123,7 @@ const COLD_EMBRITTLEMENT: HandlingCaution = {
   text:
     'Ordinary carbon steel and many plastics turn brittle at cryogenic temperatures and can crack. ' +
     'Use parts rated for the temperature.',
+  source: S.practice,
 };
 const ASPHYXIATION: HandlingCaution = {
   key: 'asphyxiation',
@@ -117,6 +131,7 @@ const ASPHYXIATION: HandlingCaution = {
   text:
     'The gas has no smell and displaces air. In a pit, trailer or closed room it can lower the oxygen ' +
     'level enough to cause collapse without warning. Ventilate and measure oxygen before entering.',
+  source: S.oxygenDeficient,
 };
 const STORED_PRESSURE: HandlingCaution = {
   key: 'stored-pressure',
@@ -125,44 +140,48 @@ const STORED_PRESSURE: HandlingCaution = {
     'Cylinders and pressurised lines store a lot of energy. A broken valve or fitting can turn a cylinder ' +
     'or a part into a projectile and a loose hose can whip. Chain cylinders upright, cap them for moving, ' +
     'and vent a line before opening it.',
+  source: S.practice,
 };
 const REGULATOR_RATING: HandlingCaution = {
   key: 'component-rating',
   severity: 'caution',
   text:
     'Regulators, hoses and gauges must be rated for the full source pressure, not just the set pressure.',
+  source: S.practice,
 };
 const FLAMMABLE_STATIC: HandlingCaution = {
   key: 'static-ignition',
   severity: 'warning',
   text:
     'Pouring and pumping build static charge. Bond and ground containers and hoses before transferring.',
+  source: S.practice,
 };
 const INVISIBLE_FLAME: HandlingCaution = {
   key: 'invisible-flame',
   severity: 'warning',
   text: 'Alcohol burns with a flame that is nearly invisible in daylight; a person can walk into it.',
+  source: S.practice,
 };
 
-const CRYO_PPE = [
-  'Face shield over safety glasses',
-  'Loose-fitting insulated cryogenic gloves that can be thrown off quickly',
-  'Long sleeves; long trousers worn outside the boots',
-  'Closed, non-absorbent footwear',
-] as const;
+const CRYO_PPE: readonly PpeItem[] = [
+  { text: 'Face shield over safety glasses', source: S.practice },
+  { text: 'Loose-fitting insulated cryogenic gloves that can be thrown off quickly', source: S.practice },
+  { text: 'Long sleeves; long trousers worn outside the boots', source: S.practice },
+  { text: 'Closed, non-absorbent footwear', source: S.practice },
+];
 
-const SOLVENT_PPE = [
-  'Chemical splash goggles',
-  'Chemical-resistant gloves suited to the liquid',
-  'Flame-resistant clothing, no synthetic fabrics that melt',
-] as const;
+const SOLVENT_PPE: readonly PpeItem[] = [
+  { text: 'Chemical splash goggles', source: S.practice },
+  { text: 'Chemical-resistant gloves suited to the liquid', source: S.practice },
+  { text: 'Flame-resistant clothing, no synthetic fabrics that melt', source: S.practice },
+];
 
-const GAS_PPE = [
-  'Safety glasses',
-  'Leather work gloves for handling cylinders',
-  'Safety footwear for moving cylinders',
-  'Personal oxygen monitor when working in enclosed spaces',
-] as const;
+const GAS_PPE: readonly PpeItem[] = [
+  { text: 'Safety glasses', source: S.practice },
+  { text: 'Leather work gloves for handling cylinders', source: S.practice },
+  { text: 'Safety footwear for moving cylinders', source: S.practice },
+  { text: 'Personal oxygen monitor when working in enclosed spaces', source: S.practice },
+];
 
 const lox: Propellant = {
   id: 'lox',
@@ -184,6 +203,7 @@ const lox: Propellant = {
         'Boil-off makes the air around the stand oxygen-rich. In it, clothing, hair, grease and many ' +
         'materials that barely burn in normal air catch fire easily and burn fiercely. Keep ignition ' +
         'sources away and measure the oxygen level.',
+      source: S.oxygenThresholds,
     },
     {
       key: 'oxygen-soaked-clothing',
@@ -191,6 +211,7 @@ const lox: Propellant = {
       text:
         'Clothing soaked with oxygen vapour or splashed with liquid stays dangerously flammable for a long time. ' +
         'Do not smoke or go near flames or sparks until it has aired out thoroughly in open air.',
+      source: S.practice,
     },
     {
       key: 'clean-for-oxygen',
@@ -199,6 +220,7 @@ const lox: Propellant = {
         'Oil, grease, particles, fibres and solvent residue can ignite in oxygen and start a metal fire. ' +
         'Clean every wetted part for oxygen service (CGA G-4.1, ASTM G93) and keep it sealed until assembly; ' +
         'use only oxygen-compatible lubricants and seals.',
+      source: S.cleaning,
     },
     {
       key: 'organic-surfaces',
@@ -206,11 +228,12 @@ const lox: Propellant = {
       text:
         'Liquid oxygen soaked into asphalt, wood or oily ground can ignite or explode when struck or stepped on. ' +
         'Handle it over clean concrete or metal and keep fuels away from spills.',
+      source: S.practice,
     },
     TRAPPED_LIQUID,
     COLD_EMBRITTLEMENT,
   ],
-  ppe: [...CRYO_PPE, 'Clean clothing free of oil and grease; cotton or flame-resistant, no synthetics'],
+  ppe: [...CRYO_PPE, { text: 'Clean clothing free of oil and grease; cotton or flame-resistant, no synthetics', source: S.practice }],
 };
 
 const ethanol: Propellant = {
@@ -233,6 +256,7 @@ const ethanol: Propellant = {
       text:
         'Gives off flammable vapour at ordinary temperatures (flash point 13 C). Vapour is heavier than air ' +
         'and can travel along the ground to a spark.',
+      source: S.nioshEthanol,
     },
     INVISIBLE_FLAME,
     FLAMMABLE_STATIC,
@@ -256,6 +280,7 @@ const ethanolWater: Propellant = {
       text:
         'Blends used as engine fuel still give off flammable vapour at room temperature. Adding water raises ' +
         'the flash point only slowly: a blend with a quarter water is nearly as easy to ignite as pure ethanol.',
+      source: S.toolboxFlash,
     },
     {
       key: 'blend-density',
@@ -263,6 +288,7 @@ const ethanolWater: Propellant = {
       text:
         'Mixing ethanol and water shrinks the total volume. Work out loads from the blend density table, ' +
         'not from the pure liquids, or the mixture ratio will be off.',
+      source: S.perrySecondary,
     },
     INVISIBLE_FLAME,
     FLAMMABLE_STATIC,
@@ -289,11 +315,13 @@ const kerosene: Propellant = {
       text:
         'Liquid at room temperature is hard to light, but a spray or mist from a leak ignites well below ' +
         'the flash point. Treat any leak under pressure as a fire hazard.',
+      source: S.practice,
     },
     {
       key: 'skin-contact',
       severity: 'warning',
       text: 'Strips oils from skin and irritates it on repeated contact; keep it off skin and out of eyes.',
+      source: S.practice,
     },
     {
       key: 'oxygen-side-contamination',
@@ -301,6 +329,7 @@ const kerosene: Propellant = {
       text:
         'Kerosene residue on oxygen-cleaned parts ruins their cleanliness. Keep separate tools, ' +
         'rags and hoses for the fuel and oxygen sides.',
+      source: S.practice,
     },
     FLAMMABLE_STATIC,
   ],
@@ -323,6 +352,7 @@ const ipa: Propellant = {
       key: 'flammable-vapour',
       severity: 'warning',
       text: 'Gives off flammable vapour at ordinary temperatures (flash point 12 C); keep sparks and flames away.',
+      source: S.niosh,
     },
     INVISIBLE_FLAME,
     FLAMMABLE_STATIC,
@@ -349,6 +379,7 @@ const n2o: Propellant = {
         'Nitrous oxide can break down violently on its own, with no fuel present, once started by heat, ' +
         'a fast pressure rise (slamming a valve), a flame front or contamination. The breakdown can run ' +
         'back through lines into the tank and burst it. Open valves slowly and keep the system clean.',
+      source: S.practice,
     },
     {
       key: 'pressure-rises-with-temperature',
@@ -356,12 +387,14 @@ const n2o: Propellant = {
       text:
         'A tank of liquid nitrous holds about 5 MPa at room temperature and the pressure climbs steeply as it warms; ' +
         'above about 36 C it is all supercritical fluid. Keep tanks out of the sun and never overfill.',
+      source: `${S.nioshN2o}; ${S.nist}`,
     },
     {
       key: 'oxidiser',
       severity: 'warning',
       text:
         'It feeds fire strongly. Clean wetted parts for oxygen service (CGA G-4.1, ASTM G93) and keep oil and grease off them.',
+      source: S.cleaning,
     },
     {
       key: 'anaesthetic',
@@ -369,17 +402,19 @@ const n2o: Propellant = {
       text:
         'Breathing the gas causes drowsiness and loss of judgement and, in a closed space, suffocation. ' +
         'Vent outdoors, away from people.',
+      source: S.practice,
     },
     {
       key: 'cold-release',
       severity: 'warning',
       text: 'Liquid flashing to gas at a leak or vent gets cold enough to freeze skin.',
+      source: S.practice,
     },
   ],
   ppe: [
-    'Face shield over safety glasses',
-    'Insulated gloves for connecting and venting',
-    'Long sleeves, clean clothing free of oil and grease',
+    { text: 'Face shield over safety glasses', source: S.practice },
+    { text: 'Insulated gloves for connecting and venting', source: S.practice },
+    { text: 'Long sleeves, clean clothing free of oil and grease', source: S.practice },
   ],
 };
 
@@ -402,6 +437,7 @@ const ln2: Propellant = {
       text:
         'Surfaces colder than liquid oxygen condense oxygen out of the air. The drips are oxygen-rich and ' +
         'make nearby materials burn fiercely, just as with liquid oxygen.',
+      source: S.practice,
     },
     TRAPPED_LIQUID,
     COLD_EMBRITTLEMENT,
@@ -437,6 +473,7 @@ const helium: Propellant = {
       key: 'leaks',
       severity: 'caution',
       text: 'Helium slips through fittings and seals that are tight for other gases; leak-check at working pressure before a test.',
+      source: S.practice,
     },
   ],
   ppe: GAS_PPE,

@@ -14,6 +14,13 @@ export const propellantKeys = {
   all: ['propellants'] as const,
   list: () => ['propellants', 'list'] as const,
   detail: (id: string) => ['propellants', 'detail', id] as const,
+  history: (id: string) => ['propellants', 'detail', id, 'history'] as const,
+};
+
+export const matrixKeys = {
+  all: ['risk-matrices'] as const,
+  list: () => ['risk-matrices', 'list'] as const,
+  detail: (id: string) => ['risk-matrices', 'detail', id] as const,
 };
 
 export const calcKeys = {

@@ -1,8 +1,10 @@
 import type { ReactNode } from 'react';
-import type { HazardDto } from '../../../contract/hazards';
+import { Link } from 'react-router-dom';
+import { BUILT_IN_MATRIX_ID, type HazardDto } from '../../../contract/hazards';
 import { Time } from '../../../components/ui/Time';
 import { PHASE_LABELS, propellantName, SYSTEM_LABELS } from '../lib/labels';
-import { levelFor, likelihoodText, severityText } from '../lib/risk';
+import { useMatrixCatalogue } from '../api/listRiskMatrices';
+import { likelihoodTextIn, riskLevelOf, severityTextIn } from '../lib/risk';
 import { RiskBadge } from './RiskBadge';
 
 function Row({ term, children }: { term: string; children: ReactNode }) {
@@ -27,8 +29,13 @@ function TextList({ items, empty }: { items: readonly string[]; empty: string })
 
 /** Every recorded field of a hazard, read-only; used on the detail page and in the printed report. */
 export function HazardFacts({ hazard }: { hazard: HazardDto }) {
-  const initial = levelFor(String(hazard.initialSeverity), hazard.initialLikelihood);
-  const residual = hazard.residualSeverity === null || hazard.residualLikelihood === null ? null : levelFor(String(hazard.residualSeverity), hazard.residualLikelihood);
+  // The levels are the server's, drawn with the matrix the hazard was assessed with.
+  const { catalogue } = useMatrixCatalogue(hazard.matrixId !== BUILT_IN_MATRIX_ID);
+  const matrix = catalogue.get(hazard.matrixId);
+  const initial = riskLevelOf(matrix, hazard.initialRisk);
+  const residual = hazard.residualSeverity === null || hazard.residualLikelihood === null ? null : riskLevelOf(matrix, hazard.residualRisk);
+  const severityText = (key: string) => severityTextIn(matrix, key);
+  const likelihoodText = (key: string) => likelihoodTextIn(matrix, key);
   return (
     <dl className="grid gap-x-6 gap-y-3 sm:grid-cols-[12rem_minmax(0,1fr)]">
       <Row term="Code">{hazard.code}</Row>
@@ -65,7 +72,10 @@ export function HazardFacts({ hazard }: { hazard: HazardDto }) {
           <span className="text-ink-muted">Not assessed yet</span>
         )}
       </Row>
-      <Row term="Matrix">{hazard.matrixId}</Row>
+      <Row term="Matrix">
+        <Link to={`/hazards/matrices/${encodeURIComponent(hazard.matrixId)}`}>{matrix?.name ?? hazard.matrixId}</Link>
+        <span className="hf-no-print block text-sm text-ink-muted">A hazard keeps the matrix it was first assessed with.</span>
+      </Row>
       <Row term="Recorded">
         <Time value={hazard.createdAt} />
       </Row>

@@ -1,14 +1,15 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { HAZARD_PHASES, HAZARD_SYSTEMS, type HazardCreateInput, type HazardDto } from '../../../contract/hazards';
+import { BUILT_IN_MATRIX_ID, HAZARD_PHASES, HAZARD_SYSTEMS, type HazardCreateInput, type HazardDto } from '../../../contract/hazards';
 import { Button } from '../../../components/ui/Button';
 import { CheckboxGroup, TextField } from '../../../components/ui/Field';
 import { Form, FormActions, FormError } from '../../../components/ui/Form';
 import { applyServerError } from '../../../lib/forms';
 import { PHASE_LABELS, PROPELLANT_OPTIONS, SYSTEM_LABELS } from '../lib/labels';
-import { levelFor, MATRIX } from '../lib/risk';
+import { useRiskMatrices } from '../api/listRiskMatrices';
+import { levelIn, levelsWorstFirst, matrixCatalogue, type MatrixView } from '../lib/risk';
 import { ListEditor } from './ListEditor';
 import { RiskBadge } from './RiskBadge';
 import { SelectField, TextAreaField } from './SelectField';
@@ -26,6 +27,7 @@ export const hazardFormSchema = z
     effects: list('effects'),
     energies: list('energy sources'),
     propellants: z.array(z.string()),
+    matrixId: z.string().min(1, 'Choose a risk matrix'),
     initialSeverity: z.string().min(1, 'Choose the initial severity'),
     initialLikelihood: z.string().min(1, 'Choose the initial likelihood'),
     residualSeverity: z.string(),
@@ -48,6 +50,7 @@ const FIELDS = [
   'effects',
   'energies',
   'propellants',
+  'matrixId',
   'initialSeverity',
   'initialLikelihood',
   'residualSeverity',
@@ -64,6 +67,7 @@ export function hazardToForm(h?: HazardDto): HazardFormValues {
     effects: h?.effects ?? [],
     energies: h?.energies ?? [],
     propellants: h?.propellants ?? [],
+    matrixId: h?.matrixId ?? BUILT_IN_MATRIX_ID,
     initialSeverity: h ? String(h.initialSeverity) : '',
     initialLikelihood: h?.initialLikelihood ?? '',
     residualSeverity: h?.residualSeverity == null ? '' : String(h.residualSeverity),
@@ -71,9 +75,13 @@ export function hazardToForm(h?: HazardDto): HazardFormValues {
   };
 }
 
-/** Form values -> the contract's create/update body. The built-in matrix sends severities as numbers. */
-export function formToInput(v: HazardFormValues): HazardCreateInput {
-  const sev = (s: string) => (/^\d+$/.test(s) ? Number(s) : s);
+/**
+ * Form values -> the contract's create/update body. The built-in matrix sends severities as numbers. The
+ * matrix is sent only for a new hazard: an existing one keeps the matrix it was assessed with.
+ */
+export function formToInput(v: HazardFormValues, { withMatrix = true }: { withMatrix?: boolean } = {}): HazardCreateInput {
+  const builtIn = v.matrixId === BUILT_IN_MATRIX_ID;
+  const sev = (s: string) => (builtIn && /^\d+$/.test(s) ? Number(s) : s);
   const clean = (items: readonly string[]) => items.map((s) => s.trim()).filter(Boolean);
   return {
     title: v.title.trim(),
@@ -84,6 +92,7 @@ export function formToInput(v: HazardFormValues): HazardCreateInput {
     effects: clean(v.effects),
     energies: clean(v.energies),
     propellants: v.propellants as HazardCreateInput['propellants'],
+    ...(withMatrix ? { matrixId: v.matrixId } : {}),
     initialSeverity: sev(v.initialSeverity),
     initialLikelihood: v.initialLikelihood,
     residualSeverity: v.residualSeverity === '' ? null : sev(v.residualSeverity),
@@ -91,15 +100,30 @@ export function formToInput(v: HazardFormValues): HazardCreateInput {
   };
 }
 
-const severityOptions = MATRIX.severities.map((s) => ({ value: s.key, label: `${s.key} ${s.label}` }));
-const likelihoodOptions = MATRIX.likelihoods.map((l) => ({ value: l.key, label: `${l.key} ${l.label}` }));
+const axisOptions = (entries: readonly { key: string; label: string }[]) => entries.map((e) => ({ value: e.key, label: `${e.key} ${e.label}` }));
 
-function LiveRisk({ label, severity, likelihood }: { label: string; severity: string; likelihood: string }) {
+function LiveRisk({ matrix, label, severity, likelihood }: { matrix: MatrixView | undefined; label: string; severity: string; likelihood: string }) {
   return (
     <p className="flex flex-wrap items-center gap-2" aria-live="polite">
       <span className="font-bold">{label}:</span>
-      <RiskBadge level={levelFor(severity, likelihood)} />
+      <RiskBadge level={levelIn(matrix, severity, likelihood)} />
     </p>
+  );
+}
+
+/** The chosen matrix's levels, worst first, so the preview reads against the whole scale. */
+function MatrixLevels({ matrix }: { matrix: MatrixView }) {
+  return (
+    <div className="text-sm">
+      <p className="font-bold">Levels in {matrix.name}, worst first:</p>
+      <ul className="mt-1 flex flex-wrap gap-x-3 gap-y-1" aria-label={`Risk levels of ${matrix.name}`}>
+        {levelsWorstFirst(matrix).map((level) => (
+          <li key={level.key} className="inline-flex items-center gap-1.5">
+            <RiskBadge level={level} />
+          </li>
+        ))}
+      </ul>
+    </div>
   );
 }
 
@@ -118,15 +142,38 @@ export function HazardForm({
   onCancel?: () => void;
 }) {
   const form = useForm<HazardFormValues>({ resolver: zodResolver(hazardFormSchema), defaultValues: hazardToForm(initial) });
-  const { register, control, handleSubmit, watch, setError, formState } = form;
+  const { register, control, handleSubmit, watch, setError, setValue, getValues, formState } = form;
   const [formError, setFormError] = useState<string | null>(null);
-  const [iS, iL, rS, rL] = watch(['initialSeverity', 'initialLikelihood', 'residualSeverity', 'residualLikelihood']);
+  const [matrixId, iS, iL, rS, rL] = watch(['matrixId', 'initialSeverity', 'initialLikelihood', 'residualSeverity', 'residualLikelihood']);
   const e = formState.errors;
+  const creating = !initial;
+
+  // The team's matrices: a new hazard may use any that is not retired; an existing one keeps its own.
+  const matrices = useRiskMatrices();
+  const catalogue = matrixCatalogue(matrices.data);
+  const matrix = catalogue.get(matrixId);
+  const choices = [...catalogue.values()].filter((m) => !m.retired || m.id === matrixId);
+  const chose = useRef(false);
+  useEffect(() => {
+    // Start a new hazard on the team's default matrix once the list arrives, unless one was already chosen.
+    if (!creating || chose.current || !matrices.data) return;
+    const preferred = matrices.data.find((m) => m.isDefault && !m.retired);
+    if (preferred && preferred.id !== getValues('matrixId')) setValue('matrixId', preferred.id);
+  }, [creating, matrices.data, getValues, setValue]);
+  const matrixField = register('matrixId', {
+    onChange: () => {
+      chose.current = true;
+      // Keys mean different things in another matrix: clear the assessment rather than carry it over.
+      for (const f of ['initialSeverity', 'initialLikelihood', 'residualSeverity', 'residualLikelihood'] as const) setValue(f, '');
+    },
+  });
+  const severityOptions = axisOptions(matrix?.severities ?? []);
+  const likelihoodOptions = axisOptions(matrix?.likelihoods ?? []);
 
   const submit = handleSubmit(async (values) => {
     setFormError(null);
     try {
-      await onSubmit(formToInput(values));
+      await onSubmit(formToInput(values, { withMatrix: creating }));
     } catch (error) {
       setFormError(applyServerError(error, setError, FIELDS));
     }
@@ -172,12 +219,28 @@ export function HazardForm({
           <CheckboxGroup legend="Propellants and pressurants involved" layout="wrap" options={PROPELLANT_OPTIONS} value={field.value} onChange={field.onChange} error={fieldState.error?.message} />
         )}
       />
+      {creating ? (
+        <SelectField
+          label="Risk matrix"
+          hint="The hazard keeps this matrix for all its assessments."
+          options={choices.map((m) => ({ value: m.id, label: `${m.name}${m.isDefault ? ' (team default)' : ''}` }))}
+          error={e.matrixId?.message}
+          {...matrixField}
+        />
+      ) : (
+        <p>
+          <span className="font-bold">Risk matrix: </span>
+          {matrix?.name ?? matrixId}
+          <span className="block text-sm text-ink-muted">A hazard keeps the matrix it was first assessed with.</span>
+        </p>
+      )}
+      {matrix ? <MatrixLevels matrix={matrix} /> : <p className="text-ink-muted">{matrices.isError ? 'Could not load this matrix.' : 'Loading the matrix…'}</p>}
       <fieldset className="grid gap-4 rounded-md border-2 border-line-soft p-3 sm:grid-cols-2">
         <legend className="px-1 font-bold">Initial risk (before mitigation)</legend>
         <SelectField label="Initial severity" placeholder="Choose…" options={severityOptions} error={e.initialSeverity?.message} {...register('initialSeverity')} />
         <SelectField label="Initial likelihood" placeholder="Choose…" options={likelihoodOptions} error={e.initialLikelihood?.message} {...register('initialLikelihood')} />
         <div className="sm:col-span-2">
-          <LiveRisk label="Initial risk level" severity={iS} likelihood={iL} />
+          <LiveRisk matrix={matrix} label="Initial risk level" severity={iS} likelihood={iL} />
         </div>
       </fieldset>
       <fieldset className="grid gap-4 rounded-md border-2 border-line-soft p-3 sm:grid-cols-2">
@@ -186,13 +249,13 @@ export function HazardForm({
         <SelectField
           label="Residual likelihood"
           placeholder="Not assessed yet"
-          hint="Only a design change or engineered feature can make a hazard Eliminated (F)."
+          hint={matrixId === BUILT_IN_MATRIX_ID ? 'Only a design change or engineered feature can make a hazard Eliminated (F).' : undefined}
           options={likelihoodOptions}
           error={e.residualLikelihood?.message}
           {...register('residualLikelihood')}
         />
         <div className="sm:col-span-2">
-          <LiveRisk label="Residual risk level" severity={rS} likelihood={rL} />
+          <LiveRisk matrix={matrix} label="Residual risk level" severity={rS} likelihood={rL} />
         </div>
       </fieldset>
       <FormActions>

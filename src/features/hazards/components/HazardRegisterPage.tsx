@@ -1,6 +1,6 @@
 import { useMemo, useId, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
-import { HAZARD_PHASES, HAZARD_SYSTEMS } from '../../../contract/hazards';
+import { BUILT_IN_MATRIX_ID, HAZARD_PHASES, HAZARD_SYSTEMS } from '../../../contract/hazards';
 import { Button, buttonClasses } from '../../../components/ui/Button';
 import { Glyph } from '../../../components/ui/Glyph';
 import { Notice } from '../../../components/ui/Notice';
@@ -9,11 +9,12 @@ import { HAZARD_STATUSES, HAZARD_STATUS_LABELS } from '../../../domain/hazards/m
 import { errorMessage } from '../../../lib/api';
 import { useSignedInMe } from '../../../lib/session';
 import { useHazards } from '../api/listHazards';
+import { useMatrixCatalogue } from '../api/listRiskMatrices';
 import { downloadCsv } from '../lib/csv';
 import { hazardsToCsv } from '../lib/exportCsv';
-import { applyCellFilter, applyListFilters, countCells, type MatrixMode, type RegisterFilters } from '../lib/filter';
+import { applyCellFilter, applyListFilters, countCells, onMatrix, parseCellKey, type MatrixMode, type RegisterFilters } from '../lib/filter';
 import { canEditHazards, PHASE_LABELS, PROPELLANT_OPTIONS, SYSTEM_LABELS } from '../lib/labels';
-import { likelihoodText, MATRIX, severityText } from '../lib/risk';
+import { BUILT_IN_VIEW, likelihoodTextIn, severityTextIn, type MatrixView } from '../lib/risk';
 import { HazardsNav } from './HazardsNav';
 import { HazardTable, useHazardTable } from './HazardTable';
 import { HeatMap } from './HeatMap';
@@ -23,6 +24,8 @@ type FilterKey = (typeof FILTER_KEYS)[number];
 
 function readFilters(params: URLSearchParams): RegisterFilters {
   const f: RegisterFilters = { mode: params.get('mode') === 'residual' ? 'residual' : 'initial' };
+  const matrix = params.get('matrix');
+  if (matrix) f.matrix = matrix;
   for (const key of FILTER_KEYS) {
     const v = params.get(key);
     if (v) f[key] = v;
@@ -64,10 +67,35 @@ function SelectFilter({
   );
 }
 
-function describeCell(cell: string, mode: MatrixMode): string {
-  const likelihood = cell.slice(0, 1);
-  const severity = cell.slice(1);
-  return `${mode === 'initial' ? 'Initial' : 'Residual'} ${likelihoodText(likelihood)} × ${severityText(severity)}`;
+function MatrixChoice({ value, options, onChange }: { value: string; options: { value: string; label: string }[]; onChange: (v: string) => void }) {
+  const id = useId();
+  return (
+    <div className="flex min-w-0 flex-col gap-1">
+      <label htmlFor={id} className="font-bold">
+        Matrix shown
+      </label>
+      <select id={id} value={value} onChange={(e) => onChange(e.target.value)} className="min-h-12 w-full rounded-md border-2 border-line bg-surface px-2 text-ink">
+        {options.map((o) => (
+          <option key={o.value} value={o.value}>
+            {o.label}
+          </option>
+        ))}
+      </select>
+    </div>
+  );
+}
+
+function describeCell(cell: string, mode: MatrixMode, matrix: MatrixView): string {
+  const { likelihood, severity } = parseCellKey(cell);
+  const where = matrix.builtIn ? '' : ` (${matrix.name})`;
+  return `${mode === 'initial' ? 'Initial' : 'Residual'} ${likelihoodTextIn(matrix, likelihood)} × ${severityTextIn(matrix, severity)}${where}`;
+}
+
+/** Matrix ids the register's hazards were assessed with, the built-in one first. */
+function matricesInUse(hazards: readonly { matrixId: string }[]): string[] {
+  const ids = [...new Set(hazards.map((h) => h.matrixId))];
+  ids.sort((a, b) => (a === BUILT_IN_MATRIX_ID ? -1 : b === BUILT_IN_MATRIX_ID ? 1 : 0));
+  return ids.length ? ids : [BUILT_IN_MATRIX_ID];
 }
 
 export function HazardRegisterPage() {
@@ -81,14 +109,14 @@ export function HazardRegisterPage() {
   // On a phone the five selects fold away behind one button; from md up they are always shown.
   const [filtersOpen, setFiltersOpen] = useState(false);
 
-  const set = (key: FilterKey | 'mode', value: string | undefined) => {
+  const set = (key: FilterKey | 'mode' | 'matrix', value: string | undefined) => {
     setParams(
       (prev) => {
         const next = new URLSearchParams(prev);
         if (value) next.set(key, value);
         else next.delete(key);
         // A cell means a different thing in the other assessment: switching clears it.
-        if (key === 'mode') next.delete('cell');
+        if (key === 'mode' || key === 'matrix') next.delete('cell');
         return next;
       },
       { replace: true },
@@ -96,10 +124,24 @@ export function HazardRegisterPage() {
   };
 
   const all = useMemo(() => hazards.data ?? [], [hazards.data]);
+  const inUse = useMemo(() => matricesInUse(all), [all]);
+  const { catalogue } = useMatrixCatalogue(inUse.some((id) => id !== BUILT_IN_MATRIX_ID));
+  const shownId = filters.matrix && inUse.includes(filters.matrix) ? filters.matrix : inUse[0];
+  const shownMatrix = catalogue.get(shownId);
+  const cellFilters = { ...filters, matrix: shownId };
   const listed = useMemo(() => applyListFilters(all, filters), [all, filters.q, filters.status, filters.system, filters.phase, filters.propellant, filters.risk]); // eslint-disable-line react-hooks/exhaustive-deps
-  const shown = useMemo(() => applyCellFilter(listed, filters), [listed, filters.cell, filters.mode]); // eslint-disable-line react-hooks/exhaustive-deps
-  const { counts, unassessed } = useMemo(() => countCells(listed, filters.mode), [listed, filters.mode]);
-  const table = useHazardTable(shown);
+  const shown = useMemo(() => applyCellFilter(listed, cellFilters), [listed, filters.cell, filters.mode, shownId]); // eslint-disable-line react-hooks/exhaustive-deps
+  const onShown = useMemo(() => onMatrix(listed, shownId), [listed, shownId]);
+  const { counts, unassessed } = useMemo(() => countCells(onShown, filters.mode), [onShown, filters.mode]);
+  const elsewhere = listed.length - onShown.length;
+  const table = useHazardTable(shown, catalogue);
+  const riskOptions = useMemo(() => {
+    const seen = new Map<string, { value: string; label: string; rank: number }>();
+    for (const id of inUse) {
+      for (const l of catalogue.get(id)?.levels ?? []) if (!seen.has(l.key)) seen.set(l.key, { value: l.key, label: l.label, rank: l.rank });
+    }
+    return [...seen.values()].sort((a, b) => b.rank - a.rank);
+  }, [inUse, catalogue]);
 
   const active = FILTER_KEYS.filter((k) => filters[k]);
   const selectFilterCount = (['status', 'system', 'phase', 'propellant', 'risk'] as const).filter((k) => filters[k]).length;
@@ -118,9 +160,9 @@ export function HazardRegisterPage() {
       case 'propellant':
         return `Propellant: ${PROPELLANT_OPTIONS.find((o) => o.value === v)?.label ?? v}`;
       case 'risk':
-        return `Current risk: ${MATRIX.levels.find((l) => l.key === v)?.label ?? v}`;
+        return `Current risk: ${riskOptions.find((l) => l.value === v)?.label ?? v}`;
       case 'cell':
-        return `Matrix cell: ${describeCell(v, filters.mode)}`;
+        return `Matrix cell: ${describeCell(v, filters.mode, shownMatrix ?? BUILT_IN_VIEW)}`;
     }
   };
 
@@ -155,14 +197,37 @@ export function HazardRegisterPage() {
         <div className="flex flex-col gap-6">
           <div className="grid gap-6 xl:grid-cols-2">
             <Section title="Risk matrix">
-              <HeatMap
-                counts={counts}
-                unassessed={unassessed}
-                mode={filters.mode}
-                onModeChange={(m) => set('mode', m === 'residual' ? 'residual' : undefined)}
-                selected={filters.cell}
-                onSelect={(cell) => set('cell', cell)}
-              />
+              {inUse.length > 1 ? (
+                <div className="mb-3 max-w-md">
+                  <MatrixChoice
+                    value={shownId}
+                    options={inUse.map((id) => ({ value: id, label: catalogue.get(id)?.name ?? id }))}
+                    onChange={(id) => set('matrix', id === BUILT_IN_MATRIX_ID ? undefined : id)}
+                  />
+                </div>
+              ) : null}
+              {shownMatrix ? (
+                <HeatMap
+                  matrix={shownMatrix}
+                  counts={counts}
+                  unassessed={unassessed}
+                  mode={filters.mode}
+                  onModeChange={(m) => set('mode', m === 'residual' ? 'residual' : undefined)}
+                  selected={filters.cell}
+                  onSelect={(cell) => set('cell', cell)}
+                />
+              ) : (
+                <Loading label="Loading the matrix…" />
+              )}
+              {elsewhere > 0 ? (
+                <p className="mt-2 text-ink-muted">
+                  {elsewhere} {elsewhere === 1 ? 'hazard was' : 'hazards were'} assessed with another matrix and {elsewhere === 1 ? 'is' : 'are'} not counted here.
+                  Choose the matrix above to see {elsewhere === 1 ? 'it' : 'them'}.
+                </p>
+              ) : null}
+              <p className="mt-2">
+                <Link to={`/hazards/matrices/${encodeURIComponent(shownId)}`}>About this matrix and who accepts each level</Link>
+              </p>
             </Section>
             <Section title="Find hazards">
               <div className="flex flex-col gap-4">
@@ -198,7 +263,7 @@ export function HazardRegisterPage() {
                     label="Current risk"
                     value={filters.risk}
                     onChange={(v) => set('risk', v)}
-                    options={[...MATRIX.levels].sort((a, b) => b.rank - a.rank).map((l) => ({ value: l.key, label: l.label }))}
+                    options={riskOptions}
                   />
                 </div>
                 <p className="text-sm text-ink-muted">Current risk is the residual risk once assessed, otherwise the initial risk.</p>

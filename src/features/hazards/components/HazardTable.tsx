@@ -3,81 +3,68 @@ import { useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { HazardDto } from '../../../contract/hazards';
 import { Time } from '../../../components/ui/Time';
-import { MATRIX } from '../lib/risk';
-import { getLevel } from '../../../domain/hazards/matrix';
 import { HAZARD_STATUSES } from '../../../domain/hazards/mitigation';
+import { riskLevelOf, type MatrixView } from '../lib/risk';
 import { PHASE_LABELS, SYSTEM_LABELS } from '../lib/labels';
 import { RiskBadge } from './RiskBadge';
 import { StatusBadge } from './StatusBadge';
 
-function rankOf(key: string | null): number {
-  if (!key) return -1;
-  try {
-    return getLevel(MATRIX, key).rank;
-  } catch {
-    return -1;
-  }
+/** Columns draw each hazard's risk with the matrix it was assessed with (`catalogue`, by matrix id). */
+export function hazardColumns(catalogue: ReadonlyMap<string, MatrixView>): ColumnDef<HazardDto>[] {
+  const level = (h: HazardDto, key: string | null) => riskLevelOf(catalogue.get(h.matrixId), key);
+  const rankOf = (h: HazardDto, key: string | null) => level(h, key)?.rank ?? -1;
+  return [
+    { id: 'code', header: 'Code', accessorKey: 'code' },
+    {
+      id: 'title',
+      header: 'Hazard',
+      accessorKey: 'title',
+      cell: ({ row }) => (
+        <Link to={`/hazards/${row.original.id}`} className="font-bold">
+          {row.original.title}
+        </Link>
+      ),
+    },
+    { id: 'system', header: 'System', accessorFn: (h) => SYSTEM_LABELS[h.system] ?? h.system },
+    { id: 'phase', header: 'Phase', accessorFn: (h) => PHASE_LABELS[h.phase] ?? h.phase },
+    {
+      id: 'status',
+      header: 'Status',
+      accessorFn: (h) => HAZARD_STATUSES.indexOf(h.status),
+      cell: ({ row }) => <StatusBadge status={row.original.status} />,
+    },
+    {
+      id: 'initialRisk',
+      header: 'Initial risk',
+      accessorFn: (h) => rankOf(h, h.initialRisk),
+      sortDescFirst: true,
+      cell: ({ row }) => <RiskBadge level={level(row.original, row.original.initialRisk)} />,
+    },
+    {
+      id: 'residualRisk',
+      header: 'Residual risk',
+      accessorFn: (h) => rankOf(h, h.residualRisk),
+      sortDescFirst: true,
+      cell: ({ row }) => <RiskBadge level={level(row.original, row.original.residualRisk)} />,
+    },
+    {
+      id: 'updatedAt',
+      header: 'Updated',
+      accessorKey: 'updatedAt',
+      sortDescFirst: true,
+      cell: ({ row }) => <Time value={row.original.updatedAt} />,
+    },
+  ];
 }
-
-function levelOrNull(key: string | null) {
-  if (!key) return null;
-  try {
-    return getLevel(MATRIX, key);
-  } catch {
-    return null;
-  }
-}
-
-export const hazardColumns: ColumnDef<HazardDto>[] = [
-  { id: 'code', header: 'Code', accessorKey: 'code' },
-  {
-    id: 'title',
-    header: 'Hazard',
-    accessorKey: 'title',
-    cell: ({ row }) => (
-      <Link to={`/hazards/${row.original.id}`} className="font-bold">
-        {row.original.title}
-      </Link>
-    ),
-  },
-  { id: 'system', header: 'System', accessorFn: (h) => SYSTEM_LABELS[h.system] ?? h.system },
-  { id: 'phase', header: 'Phase', accessorFn: (h) => PHASE_LABELS[h.phase] ?? h.phase },
-  {
-    id: 'status',
-    header: 'Status',
-    accessorFn: (h) => HAZARD_STATUSES.indexOf(h.status),
-    cell: ({ row }) => <StatusBadge status={row.original.status} />,
-  },
-  {
-    id: 'initialRisk',
-    header: 'Initial risk',
-    accessorFn: (h) => rankOf(h.initialRisk),
-    sortDescFirst: true,
-    cell: ({ row }) => <RiskBadge level={levelOrNull(row.original.initialRisk)} />,
-  },
-  {
-    id: 'residualRisk',
-    header: 'Residual risk',
-    accessorFn: (h) => rankOf(h.residualRisk),
-    sortDescFirst: true,
-    cell: ({ row }) => <RiskBadge level={levelOrNull(row.original.residualRisk)} />,
-  },
-  {
-    id: 'updatedAt',
-    header: 'Updated',
-    accessorKey: 'updatedAt',
-    sortDescFirst: true,
-    cell: ({ row }) => <Time value={row.original.updatedAt} />,
-  },
-];
 
 /** The table instance lives with the page so CSV export can use the same sorted, filtered rows. */
-export function useHazardTable(hazards: readonly HazardDto[]) {
+export function useHazardTable(hazards: readonly HazardDto[], catalogue: ReadonlyMap<string, MatrixView>) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'residualRisk', desc: true }]);
   const data = useMemo(() => [...hazards], [hazards]);
+  const columns = useMemo(() => hazardColumns(catalogue), [catalogue]);
   return useReactTable({
     data,
-    columns: hazardColumns,
+    columns,
     state: { sorting },
     onSortingChange: setSorting,
     getCoreRowModel: getCoreRowModel(),
@@ -129,7 +116,7 @@ export function HazardTable({ table }: { table: Table<HazardDto> }) {
         <tbody className="max-md:block">
           {rows.length === 0 ? (
             <tr className="max-md:block">
-              <td colSpan={hazardColumns.length} className="p-4 max-md:block">
+              <td colSpan={table.getVisibleLeafColumns().length} className="p-4 max-md:block">
                 No hazard matches these filters.
               </td>
             </tr>

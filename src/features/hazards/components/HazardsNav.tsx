@@ -2,6 +2,7 @@ import { NavLink } from 'react-router-dom';
 
 const LINKS = [
   { to: '/hazards', label: 'Register', end: true },
+  { to: '/hazards/matrices', label: 'Risk matrices', end: false },
   { to: '/hazards/tools', label: 'Engineering checks', end: false },
   { to: '/hazards/propellants', label: 'Propellant library', end: false },
 ] as const;

@@ -1,9 +1,12 @@
 import { useId } from 'react';
-import { levelFor, levelClass, MATRIX } from '../lib/risk';
-import { cellKey, type MatrixMode } from '../lib/filter';
+import type { RiskMatrix } from '../../../domain/hazards/matrix';
+import { levelClass, levelIn, levelsWorstFirst } from '../lib/risk';
+import { cellKey, parseCellKey, type MatrixMode } from '../lib/filter';
 import { LevelGlyph } from './LevelGlyph';
 
 export interface HeatMapProps {
+  /** The matrix drawn; counts are of hazards assessed with it. */
+  matrix: RiskMatrix;
   counts: ReadonlyMap<string, number>;
   unassessed: number;
   mode: MatrixMode;
@@ -17,8 +20,10 @@ export interface HeatMapProps {
  * Each cell is a toggle button whose name says the cell, its level and its count; pressing it filters
  * the register to that cell.
  */
-export function HeatMap({ counts, unassessed, mode, onModeChange, selected, onSelect }: HeatMapProps) {
+export function HeatMap({ matrix, counts, unassessed, mode, onModeChange, selected, onSelect }: HeatMapProps) {
   const captionId = useId();
+  const MATRIX = matrix;
+  const chosen = selected ? parseCellKey(selected) : null;
   const modeName = mode === 'initial' ? 'initial' : 'residual';
   return (
     <div className="min-w-0">
@@ -56,7 +61,7 @@ export function HeatMap({ counts, unassessed, mode, onModeChange, selected, onSe
                 </th>
                 {MATRIX.severities.map((s) => {
                   const key = cellKey(l.key, s.key);
-                  const level = levelFor(s.key, l.key);
+                  const level = levelIn(MATRIX, s.key, l.key);
                   const count = counts.get(key) ?? 0;
                   const pressed = selected === key;
                   return (
@@ -66,7 +71,7 @@ export function HeatMap({ counts, unassessed, mode, onModeChange, selected, onSe
                         aria-pressed={pressed}
                         aria-label={`${l.label} (${l.key}) by ${s.label} (${s.key}): ${level?.label ?? 'unrated'}, ${count} ${count === 1 ? 'hazard' : 'hazards'}`}
                         onClick={() => onSelect(pressed ? undefined : key)}
-                        className={`flex min-h-14 w-full min-w-0 cursor-pointer flex-col items-center justify-center rounded-sm px-1 py-1 leading-tight ${level ? levelClass(level.key) : 'border-2 border-line-soft'}`}
+                        className={`flex min-h-14 w-full min-w-0 cursor-pointer flex-col items-center justify-center rounded-sm px-1 py-1 leading-tight ${level ? levelClass(level) : 'border-2 border-line-soft'}`}
                       >
                         <span className="flex items-center gap-1 text-xl font-bold">
                           <LevelGlyph glyph={level?.glyph} className="size-3.5" />
@@ -86,21 +91,19 @@ export function HeatMap({ counts, unassessed, mode, onModeChange, selected, onSe
         Severity: {MATRIX.severities.map((s) => `${s.key} ${s.label}`).join(' · ')}
       </p>
       <ul className="mt-2 flex flex-wrap gap-x-3 gap-y-1 text-sm" aria-label="Risk levels">
-        {[...MATRIX.levels]
-          .sort((a, b) => b.rank - a.rank)
-          .map((level) => (
-            <li key={level.key} className="inline-flex items-center gap-1.5">
-              <span className={`inline-flex size-5 items-center justify-center rounded-sm ${levelClass(level.key)}`}>
-                <LevelGlyph glyph={level.glyph} className="size-3" />
-              </span>
-              {level.label}
-            </li>
-          ))}
+        {levelsWorstFirst(MATRIX).map((level) => (
+          <li key={level.key} className="inline-flex items-center gap-1.5">
+            <span className={`inline-flex size-5 items-center justify-center rounded-sm ${levelClass(level)}`}>
+              <LevelGlyph glyph={level.glyph} className="size-3" />
+            </span>
+            {level.label}
+          </li>
+        ))}
       </ul>
-      {selected ? (
+      {chosen ? (
         <p className="mt-2 font-bold">
-          Filtering by {MATRIX.likelihoods.find((l) => l.key === selected.slice(0, 1))?.label} × {MATRIX.severities.find((s) => s.key === selected.slice(1))?.label}. Press the cell
-          again to clear.
+          Filtering by {MATRIX.likelihoods.find((l) => l.key === chosen.likelihood)?.label ?? chosen.likelihood} ×{' '}
+          {MATRIX.severities.find((s) => s.key === chosen.severity)?.label ?? chosen.severity}. Press the cell again to clear.
         </p>
       ) : null}
       {mode === 'residual' && unassessed > 0 ? (

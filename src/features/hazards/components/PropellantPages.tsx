@@ -1,14 +1,41 @@
-import { Link, useParams } from 'react-router-dom';
+import { Link, useNavigate, useParams } from 'react-router-dom';
 import type { PropellantDto } from '../../../contract/hazards';
 import { Badge } from '../../../components/ui/Badge';
+import { buttonClasses } from '../../../components/ui/Button';
 import { Glyph } from '../../../components/ui/Glyph';
 import { Notice } from '../../../components/ui/Notice';
 import { Loading, Page, Section } from '../../../components/ui/Page';
 import { Time } from '../../../components/ui/Time';
 import { errorMessage } from '../../../lib/api';
+import { useSignedInMe } from '../../../lib/session';
 import { usePropellant } from '../api/getPropellant';
 import { usePropellants } from '../api/listPropellants';
 import { HazardsNav } from './HazardsNav';
+
+function CautionAuthority() {
+  return (
+    <Notice tone="warning" title="Holdfire is not a safety authority">
+      <p>
+        These cautions and PPE are a starting list kept by your safety officer, each with its source. Your site&apos;s governing code, its licensed
+        authority and your team&apos;s practice decide what applies on your stand.
+      </p>
+    </Notice>
+  );
+}
+import { PropellantCautionEditor } from './PropellantCautionEditor';
+import { PropellantCautionHistory } from './PropellantCautionHistory';
+
+/** The server lets only the safety officer edit cautions; admins do not override them. */
+const canEditCautions = (roles: readonly string[]) => roles.includes('safety');
+
+function Source({ text }: { text: string }) {
+  return (
+    <span className="mt-1 block text-sm text-ink">
+      <span className="font-bold">Source: </span>
+      {text}
+    </span>
+  );
+}
 
 const ROLE_WORDS: Record<PropellantDto['role'], string> = {
   oxidiser: 'Oxidiser',
@@ -81,6 +108,7 @@ export function PropellantLibraryPage() {
 
 export function PropellantPage() {
   const { id = '' } = useParams();
+  const me = useSignedInMe();
   const p = usePropellant(id);
   if (p.isPending) return <Loading label="Loading…" />;
   if (p.isError)
@@ -98,7 +126,17 @@ export function PropellantPage() {
   const warnings = d.cautions.filter((c) => c.severity === 'warning');
   const cautions = d.cautions.filter((c) => c.severity === 'caution');
   return (
-    <Page title={d.name} kicker="Propellant library">
+    <Page
+      title={d.name}
+      kicker="Propellant library"
+      actions={
+        canEditCautions(me.roles) ? (
+          <Link to={`/hazards/propellants/${d.id}/cautions`} className={buttonClasses('primary')}>
+            Edit cautions and PPE
+          </Link>
+        ) : null
+      }
+    >
       <HazardsNav />
       <p className="mb-4 text-lg">
         {ROLE_WORDS[d.role]} · {STATE_WORDS[d.state]} · <Link to="/hazards/propellants">Back to the library</Link>
@@ -166,6 +204,7 @@ export function PropellantPage() {
             </table>
           </div>
         </Section>
+        <CautionAuthority />
         <Section title="Warnings: can harm people">
           {warnings.length === 0 ? <p>None listed.</p> : null}
           <ul className="flex flex-col gap-2">
@@ -175,6 +214,7 @@ export function PropellantPage() {
                 <p>
                   <span className="font-bold text-danger">Warning: </span>
                   {c.text}
+                  <Source text={c.source} />
                 </p>
               </li>
             ))}
@@ -189,6 +229,7 @@ export function PropellantPage() {
                 <p>
                   <span className="font-bold text-caution">Caution: </span>
                   {c.text}
+                  <Source text={c.source} />
                 </p>
               </li>
             ))}
@@ -207,15 +248,65 @@ export function PropellantPage() {
           ) : null}
         </Section>
         <Section title="Personal protective equipment">
-          <ul className="list-disc space-y-1 pl-6">
-            {d.ppe.map((item) => (
-              <li key={item}>{item}</li>
+          {d.ppe.length === 0 ? <p>None listed.</p> : null}
+          <ul className="list-disc space-y-2 pl-6">
+            {d.ppe.map((item, i) => (
+              <li key={i}>
+                {item.text}
+                <Source text={item.source} />
+              </li>
             ))}
           </ul>
           <p className="mt-3 text-ink-muted">
             A starting list. Holdfire is a planning and record aid, not a safety authority: your site's rules and its licensed authority decide the PPE.
           </p>
         </Section>
+        <Section title="Changes to cautions and PPE">
+          <PropellantCautionHistory propellantId={d.id} />
+        </Section>
+      </div>
+    </Page>
+  );
+}
+
+/** The safety officer's editor on its own page, so a half-made edit has an address and a way back. */
+export function PropellantCautionsPage() {
+  const { id = '' } = useParams();
+  const me = useSignedInMe();
+  const p = usePropellant(id);
+  const navigate = useNavigate();
+  const back = `/hazards/propellants/${encodeURIComponent(id)}`;
+  if (!canEditCautions(me.roles))
+    return (
+      <Page title="You cannot edit cautions" kicker="403 · Not allowed">
+        <Notice tone="warning" title="This page needs another role">
+          <p>Only the Safety officer edits the handling cautions and PPE. Everyone signed in can read them and their history.</p>
+        </Notice>
+        <p className="mt-4">
+          <Link to={back}>Back to the propellant</Link>
+        </p>
+      </Page>
+    );
+  if (p.isPending) return <Loading label="Loading…" />;
+  if (p.isError)
+    return (
+      <Page title="Edit cautions" kicker="Propellant library">
+        <Notice tone="danger" title="Could not load this propellant">
+          <p>{errorMessage(p.error)}</p>
+        </Notice>
+        <p className="mt-4">
+          <Link to="/hazards/propellants">Back to the library</Link>
+        </p>
+      </Page>
+    );
+  return (
+    <Page title={`Cautions and PPE: ${p.data.name}`} kicker="Propellant library">
+      <p className="mb-4">
+        <Link to={back}>Back to {p.data.name}</Link>
+      </p>
+      <div className="flex flex-col gap-5">
+        <CautionAuthority />
+        <PropellantCautionEditor propellant={p.data} onDone={() => navigate(back)} />
       </div>
     </Page>
   );

@@ -13,7 +13,7 @@ export function RiskBadge({ level, prefix }: { level: RiskLevel | null; prefix?:
     );
   }
   return (
-    <span className={`inline-flex items-center gap-1.5 rounded-sm px-2 py-0.5 text-sm font-bold leading-tight ${levelClass(level.key)}`}>
+    <span className={`inline-flex items-center gap-1.5 rounded-sm px-2 py-0.5 text-sm font-bold leading-tight ${levelClass(level)}`}>
       <LevelGlyph glyph={level.glyph} />
       {prefix ? <span>{prefix}</span> : null}
       <span>{level.label}</span>

@@ -1,4 +1,4 @@
-import type { HazardDto } from '../../../contract/hazards';
+import { BUILT_IN_MATRIX_ID, type HazardDto } from '../../../contract/hazards';
 import { SYSTEM_LABELS, PHASE_LABELS, propellantName } from './labels';
 import { HAZARD_STATUS_LABELS } from '../../../domain/hazards/mitigation';
 
@@ -11,8 +11,10 @@ export interface RegisterFilters {
   phase?: string;
   propellant?: string;
   risk?: string;
-  /** Heat-map cell "<likelihood><severity>", e.g. "C2", read against `mode`. */
+  /** Heat-map cell (see cellKey), e.g. "C2", read against `mode` and `matrix`. */
   cell?: string;
+  /** The matrix the heat-map shows; the built-in one when not set. */
+  matrix?: string;
   mode: MatrixMode;
 }
 
@@ -23,8 +25,28 @@ export function cellOf(hazard: HazardDto, mode: MatrixMode): { severity: string;
   return { severity: String(hazard.residualSeverity), likelihood: hazard.residualLikelihood };
 }
 
+/**
+ * "C2" for the built-in matrix's one-letter likelihoods; "likely.major" once a likelihood key is longer,
+ * so the pair can be read back (matrix keys never contain a dot).
+ */
 export function cellKey(likelihood: string, severity: string): string {
-  return `${likelihood}${severity}`;
+  return likelihood.length === 1 ? `${likelihood}${severity}` : `${likelihood}.${severity}`;
+}
+
+export function parseCellKey(cell: string): { likelihood: string; severity: string } {
+  const dot = cell.indexOf('.');
+  if (dot >= 0) return { likelihood: cell.slice(0, dot), severity: cell.slice(dot + 1) };
+  return { likelihood: cell.slice(0, 1), severity: cell.slice(1) };
+}
+
+/** The matrix the heat-map is showing. */
+export function shownMatrixId(f: RegisterFilters): string {
+  return f.matrix ?? BUILT_IN_MATRIX_ID;
+}
+
+/** The hazards a heat-map of one matrix can place: only those assessed with that matrix. */
+export function onMatrix(hazards: readonly HazardDto[], matrixId: string): HazardDto[] {
+  return hazards.filter((h) => h.matrixId === matrixId);
 }
 
 /** The risk people act on: residual once assessed, else initial (same rule as the server's ?risk=). */
@@ -54,7 +76,9 @@ export function applyListFilters(hazards: readonly HazardDto[], f: RegisterFilte
 
 export function applyCellFilter(hazards: readonly HazardDto[], f: RegisterFilters): HazardDto[] {
   if (!f.cell) return [...hazards];
+  const matrixId = shownMatrixId(f);
   return hazards.filter((h) => {
+    if (h.matrixId !== matrixId) return false;
     const c = cellOf(h, f.mode);
     return c !== null && cellKey(c.likelihood, c.severity) === f.cell;
   });
