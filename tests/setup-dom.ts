@@ -1,6 +1,9 @@
 import '@testing-library/jest-dom/vitest';
-import { cleanup } from '@testing-library/react';
+import { cleanup, configure } from '@testing-library/react';
 import { afterEach, vi } from 'vitest';
+
+// findBy* waits up to 1 s by default; on a loaded 2-core machine the first render of a page can take longer.
+configure({ asyncUtilTimeout: 5000 });
 
 afterEach(() => {
   cleanup();
