@@ -33,6 +33,8 @@ for (const p of pages) {
 
     test(`${p.name}: accessible and screenshotted in both themes at phone and desktop size`, async ({ page, consoleErrors }) => {
       void consoleErrors;
+      // Four loads, scans and full-page screenshots: on a busy shared machine that can pass 45 s.
+      test.slow();
       for (const theme of themes) {
         await page.addInitScript((t) => localStorage.setItem('holdfire.theme', t), theme);
         for (const vp of viewports) {
