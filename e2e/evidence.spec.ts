@@ -1,6 +1,6 @@
 import type { APIRequestContext, Page } from '@playwright/test';
 import { makePng } from '../tests/helpers/png';
-import { expect, expectAccessible, storageStateFor, test } from './fixtures';
+import { DEMO_PASSWORD, expect, expectAccessible, ROLE_USERS, storageStateFor, test } from './fixtures';
 
 test.describe.configure({ mode: 'serial' });
 
@@ -29,18 +29,32 @@ async function firstListedMitigation(request: APIRequestContext, id: number) {
   return h.mitigations[0]!;
 }
 
+/**
+ * The safety officer in a session of this spec's own. A CSRF token is per session and fetching one replaces
+ * the last, so sharing the saved safety session with another spec writing in parallel would make each
+ * refuse the other's next write.
+ */
+async function signInAsSafety(page: Page) {
+  const { csrfToken } = await (await page.request.get('/api/auth/csrf')).json();
+  const res = await page.request.post('/api/auth/login', { headers: { 'X-CSRF-Token': csrfToken }, data: { email: ROLE_USERS.safety, password: DEMO_PASSWORD } });
+  expect(res.status()).toBe(200);
+}
+
 async function imageLoaded(page: Page, name: string) {
   const img = page.getByRole('img', { name });
   await expect(img).toBeVisible();
+  await img.scrollIntoViewIfNeeded(); // it loads lazily
   // Decoded, so the CSP and the download route let the browser show it.
   await expect.poll(() => img.evaluate((el: HTMLImageElement) => el.complete && el.naturalWidth)).toBe(64);
 }
 
 test.describe('safety officer', () => {
-  test.use({ storageState: storageStateFor('safety') });
+  test.use({ storageState: { cookies: [], origins: [] } });
+  test.beforeEach(({ page }) => signInAsSafety(page));
 
   test('uploads a photo as evidence on a demo hazard mitigation and sees it', async ({ page, consoleErrors }) => {
     void consoleErrors;
+    test.slow(); // four themed, sized screenshots with an accessibility scan each
     const h = await hazardNamed(page.request, PHOTO_HAZARD);
     const mit = await firstListedMitigation(page.request, h.id);
     await page.goto(`/hazards/${h.id}`);
@@ -75,7 +89,6 @@ test.describe('safety officer', () => {
         const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
         expect(overflow, `hazard with evidence ${vp.name} scrolls sideways`).toBeLessThanOrEqual(0);
         await expectAccessible(page, `hazard with evidence ${theme} ${vp.name}`);
-        await page.getByRole('img', { name: `Photo: ${label}` }).scrollIntoViewIfNeeded();
         await page.screenshot({ path: `e2e/screenshots/evidence-hazard-${vp.name}-${theme}.png` });
       }
     }
@@ -83,6 +96,7 @@ test.describe('safety officer', () => {
 
   test('attaches a surge result from the checks page and sees it frozen on the hazard', async ({ page, consoleErrors }) => {
     void consoleErrors;
+    test.slow(); // two accessibility scans of long pages
     const h = await hazardNamed(page.request, CALC_HAZARD);
     const mit = await firstListedMitigation(page.request, h.id);
     const expected = await (await page.request.get('/api/calc/surge?fluid=ethanol&velocityChangeMps=2.2')).json();
@@ -150,7 +164,8 @@ test.describe('auditor', () => {
 });
 
 test.describe('safety officer again', () => {
-  test.use({ storageState: storageStateFor('safety') });
+  test.use({ storageState: { cookies: [], origins: [] } });
+  test.beforeEach(({ page }) => signInAsSafety(page));
 
   test('removes the photo after confirming, and the file is gone', async ({ page, consoleErrors }) => {
     void consoleErrors;
