@@ -2,6 +2,7 @@ import type { QueryInterface, Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
 import * as m0001 from './migrations/0001-foundation';
 import * as m0002 from './migrations/0002-hazards';
+import * as m0004 from './migrations/0004-procedures';
 
 export interface MigrationContext {
   queryInterface: QueryInterface;
@@ -12,6 +13,7 @@ export interface MigrationContext {
 const MIGRATIONS = [
   { name: '0001-foundation', ...m0001 },
   { name: '0002-hazards', ...m0002 },
+  { name: '0004-procedures', ...m0004 },
 ];
 
 export function createMigrator(sequelize: Sequelize) {

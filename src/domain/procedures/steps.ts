@@ -115,7 +115,8 @@ export function stepProblems(step: Step): Problem[] {
 
 /** What the sequence rules read of a step; null stands for a step too malformed to read. */
 export interface SequenceStep {
-  key: string;
+  /** Missing on a new step the server has not keyed yet. */
+  key?: string;
   tSeconds: number | null;
 }
 
@@ -137,9 +138,11 @@ export function sequenceProblems(phases: readonly { key?: string; name?: string;
       if (step === null) return;
       const path = `phases.${p}.steps.${s}`;
       const where = `step ${s + 1} of ${phase.name?.trim() || `phase ${p + 1}`}`;
-      const earlier = stepKeys.get(step.key);
-      if (earlier !== undefined) out.push({ path: `${path}.key`, message: `The step key '${step.key}' is already used by ${earlier}.` });
-      else stepKeys.set(step.key, where);
+      if (step.key !== undefined) {
+        const earlier = stepKeys.get(step.key);
+        if (earlier !== undefined) out.push({ path: `${path}.key`, message: `The step key '${step.key}' is already used by ${earlier}.` });
+        else stepKeys.set(step.key, where);
+      }
       if (step.tSeconds === null || !Number.isInteger(step.tSeconds)) return;
       if (last !== null && step.tSeconds < last.t) {
         out.push({
@@ -160,11 +163,12 @@ export interface References {
   hazardIds?: ReadonlySet<number>;
 }
 
-/** Steps may only name stations (and hazards) the team has. */
-export function referenceProblems(phases: readonly Phase[], refs: References): Problem[] {
+/** Steps may only name stations (and hazards) the team has; null stands for an unreadable step. */
+export function referenceProblems(phases: readonly { steps: readonly (Step | null)[] }[], refs: References): Problem[] {
   const out: Problem[] = [];
   phases.forEach((phase, p) =>
     phase.steps.forEach((step, s) => {
+      if (step === null) return;
       const path = `phases.${p}.steps.${s}`;
       if (step.station.trim() !== '' && !refs.stations.has(step.station)) {
         out.push({ path: `${path}.station`, message: `There is no station with the short code ${step.station}.` });
@@ -197,4 +201,35 @@ export function validatePhases(phases: readonly Phase[], refs?: References): Pro
 
 export function stepCount(phases: readonly { steps: readonly unknown[] }[]): number {
   return phases.reduce((n, p) => n + p.steps.length, 0);
+}
+
+/**
+ * The step with its fields in one order and its lists without repeats, so two saves of the same content
+ * compare equal and a diff shows only real changes.
+ */
+export function normaliseStep(step: Step): Step {
+  const base = {
+    key: step.key,
+    kind: step.kind,
+    tSeconds: step.tSeconds,
+    station: step.station,
+    instruction: step.instruction,
+    hazardIds: [...new Set(step.hazardIds)],
+    propellants: [...new Set(step.propellants)],
+    note: step.note,
+  };
+  switch (step.kind) {
+    case 'reading':
+      return { ...base, kind: 'reading', unit: step.unit, min: step.min, max: step.max };
+    case 'poll':
+      return { ...base, kind: 'poll', stations: [...step.stations] };
+    case 'builtInHold':
+      return { ...base, kind: 'builtInHold', durationSeconds: step.durationSeconds };
+    case 'personnelCheck':
+      return { ...base, kind: 'personnelCheck', checks: [...new Set(step.checks)], zone: step.zone };
+    case 'action':
+      return { ...base, kind: 'action' };
+    case 'verification':
+      return { ...base, kind: 'verification' };
+  }
 }
