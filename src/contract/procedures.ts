@@ -467,14 +467,27 @@ export interface ImportedProcedure {
   phases: PhaseParsed[];
 }
 
+const TOP_ORDER = ['format', 'version', 'exportedAt', 'procedure', 'revision', 'stations', 'phases'];
+
+function comparePaths(a: readonly PropertyKey[], b: readonly PropertyKey[]): number {
+  for (let i = 0; i < Math.min(a.length, b.length); i++) {
+    const x = a[i];
+    const y = b[i];
+    if (x === y) continue;
+    if (typeof x === 'number' && typeof y === 'number') return x - y;
+    if (i === 0) return TOP_ORDER.indexOf(String(x)) - TOP_ORDER.indexOf(String(y));
+    return 0; // two fields of one step: keep the order the checks found them in
+  }
+  return a.length - b.length;
+}
+
 /** Reads an exchange file against the team's stations and hazards: the procedure, or every problem in it. */
 export function readProcedureDocument(raw: unknown, refs: FileReferences): { ok: true; value: ImportedProcedure } | { ok: false; problems: Problem[] } {
   const result = procedureDocumentSchema(refs).safeParse(raw);
   if (!result.success) {
-    return {
-      ok: false,
-      problems: result.error.issues.map((i) => ({ path: i.path.map(String).join('.') || '(file)', message: i.message })),
-    };
+    // In document order, so a list of problems reads from the top of the file down.
+    const issues = [...result.error.issues].sort((a, b) => comparePaths(a.path, b.path));
+    return { ok: false, problems: issues.map((i) => ({ path: i.path.map(String).join('.') || '(file)', message: i.message })) };
   }
   const reader = fileReader(refs);
   const phases = result.data.phases.map((ph) => ({

@@ -260,5 +260,15 @@ describe('writing procedures', () => {
     await del(conductor, `/api/procedures/${p.id}/revisions/1`).expect(409);
     await del(operator, '/api/procedures/1/revisions/2').expect(403);
     await del(conductor, '/api/procedures/1/revisions/1').expect(409);
+    // Imported as a draft, copied, then the copy is discarded: the procedure is back to one revision.
+    const exported = (await operator.get('/api/procedures/1/revisions/1/export').expect(200)).body;
+    const imported = (await conductor.post('/api/procedures/import', exported).expect(201)).body;
+    await put(conductor, `/api/procedures/${imported.id}/revisions/1`, sampleContent()).expect(200);
+    await conductor.post(`/api/procedures/${imported.id}/revisions/1/signoffs`, { as: 'conductor' }).expect(201);
+    await safety.post(`/api/procedures/${imported.id}/revisions/1/signoffs`, { as: 'safety' }).expect(201);
+    await conductor.post(`/api/procedures/${imported.id}/revisions`).expect(201);
+    const after = (await del(conductor, `/api/procedures/${imported.id}/revisions/2`).expect(200)).body;
+    expect(after.revisions.map((r: { number: number }) => r.number)).toEqual([1]);
+    await conductor.get(`/api/procedures/${imported.id}/revisions/2`).expect(404);
   });
 });
