@@ -18,16 +18,19 @@ import { registerClockHandlers } from './realtime/clock.handlers';
 import type { HoldfireServer } from './realtime/types';
 import { authRoutes } from './routes/auth.routes';
 import { calcRoutes } from './routes/calc.routes';
+import { crewPlanRoutes } from './routes/crew-plans.routes';
 import { hazardRoutes } from './routes/hazards.routes';
 import { healthRoutes } from './routes/health.routes';
 import { invitationRoutes } from './routes/invitations.routes';
 import { mailRoutes } from './routes/mail.routes';
 import { passwordResetRoutes } from './routes/password-resets.routes';
+import { procedureRoutes } from './routes/procedures.routes';
 import { profileRoutes } from './routes/profile.routes';
 import { propellantRoutes } from './routes/propellants.routes';
 import { riskMatrixRoutes } from './routes/risk-matrices.routes';
 import { setupRoutes } from './routes/setup.routes';
 import { uploadRoutes } from './routes/uploads.routes';
+import { stationRoutes } from './routes/stations.routes';
 import { userRoutes } from './routes/users.routes';
 import { createUploadStore } from './uploads';
 import './types';
@@ -115,6 +118,9 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...propellantRoutes(),
     ...calcRoutes(),
     ...uploadRoutes({ uploads }),
+    ...procedureRoutes(),
+    ...stationRoutes(),
+    ...crewPlanRoutes(),
   ];
 
   const api = express.Router();

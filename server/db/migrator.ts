@@ -4,6 +4,7 @@ import * as m0001 from './migrations/0001-foundation';
 import * as m0002 from './migrations/0002-hazards';
 import * as m0003 from './migrations/0003-uploads';
 import * as m0004 from './migrations/0004-risk-matrix-lifecycle';
+import * as m0005 from './migrations/0005-procedures';
 
 export interface MigrationContext {
   queryInterface: QueryInterface;
@@ -16,6 +17,7 @@ const MIGRATIONS = [
   { name: '0002-hazards', ...m0002 },
   { name: '0003-uploads', ...m0003 },
   { name: '0004-risk-matrix-lifecycle', ...m0004 },
+  { name: '0005-procedures', ...m0005 },
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -1,4 +1,6 @@
 import type { Sequelize } from 'sequelize';
+import { CrewAssignment } from './crew-assignment.model';
+import { CrewPlan } from './crew-plan.model';
 import { HazardAcceptance } from './hazard-acceptance.model';
 import { HazardHistory } from './hazard-history.model';
 import { Hazard } from './hazard.model';
@@ -7,10 +9,14 @@ import { MailMessage } from './mail-message.model';
 import { MitigationEvidence } from './mitigation-evidence.model';
 import { Mitigation } from './mitigation.model';
 import { PasswordReset } from './password-reset.model';
+import { ProcedureRevision } from './procedure-revision.model';
+import { ProcedureSignoff } from './procedure-signoff.model';
+import { Procedure } from './procedure.model';
 import { PropellantCautionHistory } from './propellant-caution-history.model';
 import { PropellantCautionOverride } from './propellant-caution-override.model';
 import { RiskMatrix } from './risk-matrix.model';
 import { Session } from './session.model';
+import { Station } from './station.model';
 import { Team } from './team.model';
 import { Upload } from './upload.model';
 import { User } from './user.model';
@@ -31,6 +37,12 @@ const MODELS = {
   PropellantCautionOverride,
   PropellantCautionHistory,
   Upload,
+  Station,
+  Procedure,
+  ProcedureRevision,
+  ProcedureSignoff,
+  CrewPlan,
+  CrewAssignment,
 };
 
 /** Every model and association, in one place. */
@@ -66,10 +78,27 @@ export function initModels(sequelize: Sequelize) {
   Upload.belongsTo(User, { as: 'uploadedBy', foreignKey: 'uploadedById' });
   MitigationEvidence.belongsTo(Upload, { as: 'upload', foreignKey: 'uploadId' });
 
+  Team.hasMany(Station, { foreignKey: 'teamId' });
+  Team.hasMany(Procedure, { foreignKey: 'teamId' });
+  Procedure.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+  Procedure.hasMany(ProcedureRevision, { as: 'revisions', foreignKey: 'procedureId', onDelete: 'CASCADE' });
+  ProcedureRevision.belongsTo(Procedure, { foreignKey: 'procedureId' });
+  ProcedureRevision.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+  ProcedureRevision.belongsTo(User, { as: 'updatedBy', foreignKey: 'updatedById' });
+  ProcedureRevision.hasMany(ProcedureSignoff, { as: 'signoffs', foreignKey: 'revisionId', onDelete: 'CASCADE' });
+  ProcedureSignoff.belongsTo(User, { foreignKey: 'userId' });
+  Team.hasMany(CrewPlan, { foreignKey: 'teamId' });
+  CrewPlan.belongsTo(Procedure, { as: 'procedure', foreignKey: 'procedureId' });
+  CrewPlan.hasMany(CrewAssignment, { as: 'assignments', foreignKey: 'crewPlanId', onDelete: 'CASCADE' });
+  CrewAssignment.belongsTo(Station, { as: 'station', foreignKey: 'stationId' });
+  CrewAssignment.belongsTo(User, { as: 'user', foreignKey: 'userId' });
+
   return MODELS;
 }
 
 export {
+  CrewAssignment,
+  CrewPlan,
   Hazard,
   HazardAcceptance,
   HazardHistory,
@@ -78,10 +107,14 @@ export {
   Mitigation,
   MitigationEvidence,
   PasswordReset,
+  Procedure,
+  ProcedureRevision,
+  ProcedureSignoff,
   PropellantCautionHistory,
   PropellantCautionOverride,
   RiskMatrix,
   Session,
+  Station,
   Team,
   Upload,
   User,

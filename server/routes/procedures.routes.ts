@@ -1,0 +1,309 @@
+import { z } from 'zod';
+import {
+  diffQuerySchema,
+  procedureCreateInputSchema,
+  procedureParamSchema,
+  procedureUpdateInputSchema,
+  readProcedureDocument,
+  revisionContentInputSchema,
+  revisionContentSchema,
+  revisionParamSchema,
+  signoffInputSchema,
+  toProcedureDocument,
+  type DiffDto,
+  type ProcedureDto,
+  type RevisionSaveDto,
+} from '../../src/contract/procedures';
+import { diffRevisions } from '../../src/domain/procedures/diff';
+import { checkSignoff } from '../../src/domain/procedures/release';
+import { stepCount, validatePhases } from '../../src/domain/procedures/steps';
+import { HttpError, badRequest, conflict, zodDetails } from '../http/errors';
+import { route } from '../http/route';
+import { Procedure, ProcedureRevision, ProcedureSignoff } from '../models';
+import {
+  cautionContext,
+  checkListedStations,
+  currentCautions,
+  findProcedure,
+  findRevision,
+  keyed,
+  procedureDto,
+  procedureSummary,
+  referencesOf,
+  revisionDto,
+  revisionsOf,
+  tx,
+} from '../procedures/procedures';
+
+/** Conductors write procedures; safety officers and admins too. Everyone signed in reads them. */
+const WRITERS = ['conductor', 'safety', 'admin'] as const;
+const ROLE_NAMES = { conductor: 'test conductor', safety: 'safety officer' } as const;
+
+function frozen(number: number): HttpError {
+  return conflict(`Revision ${number} is released and frozen. Open a new revision to change it.`, 'revision_released');
+}
+
+const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
+
+const slug = (s: string) =>
+  s
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 60) || 'procedure';
+
+export function procedureRoutes() {
+  return [
+    route({
+      method: 'get',
+      path: '/procedures',
+      access: 'signed-in',
+      handler: async ({ user }) => {
+        const rows = await Procedure.findAll({
+          where: { teamId: user!.teamId },
+          include: [{ model: ProcedureRevision, as: 'revisions', attributes: ['id', 'number', 'status', 'releasedAt'] }],
+          order: [['name', 'ASC'], ['id', 'ASC']],
+        });
+        return rows.map(procedureSummary);
+      },
+    }),
+    route({
+      method: 'post',
+      path: '/procedures',
+      access: WRITERS,
+      status: 201,
+      body: procedureCreateInputSchema,
+      handler: async ({ body, user }): Promise<ProcedureDto> => {
+        const teamId = user!.teamId;
+        return tx(async (t) => {
+          const refs = await referencesOf(teamId, t);
+          checkListedStations(body.stations, refs.stations);
+          const p = await Procedure.create({ teamId, ...body, createdById: user!.id }, { transaction: t });
+          await ProcedureRevision.create(
+            { procedureId: p.id, number: 1, status: 'draft', basedOn: null, phases: [], releasedCautions: null, releasedAt: null, createdById: user!.id, updatedById: user!.id },
+            { transaction: t },
+          );
+          return procedureDto(await findProcedure(teamId, p.id, t));
+        });
+      },
+    }),
+    route({
+      method: 'post',
+      path: '/procedures/import',
+      access: WRITERS,
+      status: 201,
+      // The file is checked as a whole below, so every problem can be listed at once.
+      body: z.record(z.string(), z.unknown(), { error: 'Send the procedure file as a JSON object.' }),
+      handler: async ({ body, user }): Promise<ProcedureDto> => {
+        const teamId = user!.teamId;
+        return tx(async (t) => {
+          const refs = await referencesOf(teamId, t);
+          const read = readProcedureDocument(body, refs);
+          if (!read.ok) {
+            const n = read.problems.length;
+            throw badRequest(`The file has ${n} problem${n === 1 ? '' : 's'}; nothing was imported.`, 'import_invalid', read.problems);
+          }
+          const { procedure, phases } = read.value;
+          const p = await Procedure.create({ teamId, ...procedure, createdById: user!.id }, { transaction: t });
+          await ProcedureRevision.create(
+            { procedureId: p.id, number: 1, status: 'draft', basedOn: null, phases: keyed(phases), releasedCautions: null, releasedAt: null, createdById: user!.id, updatedById: user!.id },
+            { transaction: t },
+          );
+          return procedureDto(await findProcedure(teamId, p.id, t));
+        });
+      },
+    }),
+    route({
+      method: 'get',
+      path: '/procedures/:id',
+      access: 'signed-in',
+      params: procedureParamSchema,
+      handler: async ({ params, user }) => procedureDto(await findProcedure(user!.teamId, params.id)),
+    }),
+    route({
+      method: 'patch',
+      path: '/procedures/:id',
+      access: WRITERS,
+      params: procedureParamSchema,
+      body: procedureUpdateInputSchema,
+      handler: async ({ params, body, user }) => {
+        const teamId = user!.teamId;
+        return tx(async (t) => {
+          const p = await findProcedure(teamId, params.id, t);
+          if (body.stations) checkListedStations(body.stations, (await referencesOf(teamId, t)).stations);
+          p.set(body);
+          await p.save({ transaction: t });
+          return procedureDto(await findProcedure(teamId, p.id, t));
+        });
+      },
+    }),
+    route({
+      method: 'post',
+      path: '/procedures/:id/revisions',
+      access: WRITERS,
+      status: 201,
+      params: procedureParamSchema,
+      handler: async ({ params, user }) => {
+        const teamId = user!.teamId;
+        return tx(async (t) => {
+          const p = await findProcedure(teamId, params.id, t);
+          const revisions = revisionsOf(p);
+          const open = revisions.find((r) => r.status === 'draft');
+          if (open) throw conflict(`Revision ${open.number} is still a draft. Finish and release it, or discard it, before opening another.`, 'draft_open');
+          const latest = revisions[revisions.length - 1]!;
+          await ProcedureRevision.create(
+            {
+              procedureId: p.id,
+              number: latest.number + 1,
+              status: 'draft',
+              basedOn: latest.number,
+              phases: latest.phases,
+              releasedCautions: null,
+              releasedAt: null,
+              createdById: user!.id,
+              updatedById: user!.id,
+            },
+            { transaction: t },
+          );
+          const fresh = await findProcedure(teamId, p.id, t);
+          return revisionDto(fresh, findRevision(fresh, latest.number + 1), await cautionContext(teamId, t));
+        });
+      },
+    }),
+    route({
+      method: 'get',
+      path: '/procedures/:id/revisions/:rev',
+      access: 'signed-in',
+      params: revisionParamSchema,
+      handler: async ({ params, user }) => {
+        const teamId = user!.teamId;
+        const p = await findProcedure(teamId, params.id);
+        return revisionDto(p, findRevision(p, params.rev), await cautionContext(teamId));
+      },
+    }),
+    route({
+      method: 'put',
+      path: '/procedures/:id/revisions/:rev',
+      access: WRITERS,
+      params: revisionParamSchema,
+      body: revisionContentInputSchema,
+      handler: async ({ req, params, user }): Promise<RevisionSaveDto> => {
+        const teamId = user!.teamId;
+        return tx(async (t) => {
+          const p = await findProcedure(teamId, params.id, t);
+          const rev = findRevision(p, params.rev);
+          if (rev.status !== 'draft') throw frozen(rev.number);
+          const refs = await referencesOf(teamId, t);
+          const checked = revisionContentSchema(refs).safeParse(req.body);
+          if (!checked.success) throw badRequest('Some steps refer to stations or hazards your team does not have.', 'validation_failed', zodDetails(checked.error));
+          const phases = keyed(checked.data.phases);
+          const changed = !same(phases, rev.phases);
+          const signed = rev.signoffs ?? [];
+          const signoffsCleared = changed && signed.length > 0;
+          if (signoffsCleared) await ProcedureSignoff.destroy({ where: { revisionId: rev.id }, transaction: t });
+          if (changed) {
+            rev.phases = phases;
+            rev.updatedById = user!.id;
+            await rev.save({ transaction: t });
+          }
+          const fresh = await findProcedure(teamId, p.id, t);
+          return { ...revisionDto(fresh, findRevision(fresh, rev.number), await cautionContext(teamId, t)), signoffsCleared };
+        });
+      },
+    }),
+    route({
+      method: 'delete',
+      path: '/procedures/:id/revisions/:rev',
+      access: WRITERS,
+      params: revisionParamSchema,
+      handler: async ({ params, user }) => {
+        const teamId = user!.teamId;
+        return tx(async (t) => {
+          const p = await findProcedure(teamId, params.id, t);
+          const rev = findRevision(p, params.rev);
+          if (rev.status !== 'draft') throw frozen(rev.number);
+          if (revisionsOf(p).length === 1) throw conflict('This is the procedure\u2019s only revision; edit it instead of discarding it.', 'only_revision');
+          await rev.destroy({ transaction: t });
+          return procedureDto(await findProcedure(teamId, p.id, t));
+        });
+      },
+    }),
+    route({
+      method: 'post',
+      path: '/procedures/:id/revisions/:rev/signoffs',
+      access: ['conductor', 'safety'],
+      status: 201,
+      params: revisionParamSchema,
+      body: signoffInputSchema,
+      handler: async ({ params, body, user }) => {
+        const teamId = user!.teamId;
+        if (!user!.roles.includes(body.as)) {
+          throw new HttpError(403, 'forbidden', `You do not hold the ${ROLE_NAMES[body.as]} role, so you cannot sign as ${ROLE_NAMES[body.as]}.`);
+        }
+        return tx(async (t) => {
+          const p = await findProcedure(teamId, params.id, t);
+          const rev = findRevision(p, params.rev);
+          const existing = rev.signoffs ?? [];
+          const check = checkSignoff(rev.status, existing.map((s) => ({ role: s.role, userId: s.userId })), { role: body.as, userId: user!.id });
+          if (!check.ok) {
+            if (check.code === 'not_draft') throw frozen(rev.number);
+            if (check.code === 'same_person') throw badRequest(check.message, 'same_person', [{ path: 'as', message: 'The same person cannot sign for both roles.' }]);
+            throw conflict(check.message, check.code);
+          }
+          if (stepCount(rev.phases) === 0) throw conflict(`Revision ${rev.number} has no steps yet; there is nothing to sign.`, 'revision_empty');
+          const refs = await referencesOf(teamId, t);
+          const problems = validatePhases(rev.phases, refs);
+          if (problems.length) throw conflict(`Revision ${rev.number} has ${problems.length} problem(s) to fix before it can be signed.`, 'revision_invalid');
+          await ProcedureSignoff.create({ revisionId: rev.id, userId: user!.id, userName: user!.name, role: body.as }, { transaction: t });
+          if (check.releases) {
+            rev.status = 'released';
+            rev.releasedAt = new Date();
+            // The cautions are part of what was signed: keep them as they stand now.
+            rev.releasedCautions = currentCautions(rev.phases, await cautionContext(teamId, t));
+            await rev.save({ transaction: t });
+          }
+          const fresh = await findProcedure(teamId, p.id, t);
+          return revisionDto(fresh, findRevision(fresh, rev.number), await cautionContext(teamId, t));
+        });
+      },
+    }),
+    route({
+      method: 'get',
+      path: '/procedures/:id/diff',
+      access: 'signed-in',
+      params: procedureParamSchema,
+      query: diffQuerySchema,
+      handler: async ({ params, query, user }): Promise<DiffDto> => {
+        const p = await findProcedure(user!.teamId, params.id);
+        const from = findRevision(p, query.from);
+        const to = findRevision(p, query.to);
+        return { from: from.number, to: to.number, ...diffRevisions(from.phases, to.phases) };
+      },
+    }),
+    route({
+      method: 'get',
+      path: '/procedures/:id/revisions/:rev/export',
+      access: 'signed-in',
+      params: revisionParamSchema,
+      handler: async ({ res, params, user }) => {
+        const teamId = user!.teamId;
+        const p = await findProcedure(teamId, params.id);
+        const rev = findRevision(p, params.rev);
+        const refs = await referencesOf(teamId);
+        res.setHeader('Content-Disposition', `attachment; filename="${slug(p.name)}-rev-${rev.number}.holdfire.json"`);
+        return toProcedureDocument(rev.phases, {
+          procedure: { name: p.name, purpose: p.purpose, testArticle: p.testArticle, site: p.site, stations: p.stations },
+          revision: {
+            number: rev.number,
+            status: rev.status,
+            releasedAt: rev.releasedAt ? rev.releasedAt.toISOString() : null,
+            signoffs: (rev.signoffs ?? []).map((s) => ({ role: s.role, name: s.userName, at: s.createdAt.toISOString() })),
+          },
+          stations: refs.stationRows.map((s) => ({ code: s.code, name: s.name, callSign: s.callSign, defaultPpe: s.defaultPpe })),
+          hazardCodeById: refs.hazardCodeById,
+          exportedAt: new Date().toISOString(),
+        });
+      },
+    }),
+  ];
+}
