@@ -157,5 +157,7 @@ export const api = {
     apiRequest<T>('POST', path, { ...options, body }),
   patch: <T = void>(path: string, body?: unknown, options?: Omit<RequestOptions<T>, 'body'>) =>
     apiRequest<T>('PATCH', path, { ...options, body }),
+  put: <T = void>(path: string, body?: unknown, options?: Omit<RequestOptions<T>, 'body'>) =>
+    apiRequest<T>('PUT', path, { ...options, body }),
   delete: <T = void>(path: string, options?: Omit<RequestOptions<T>, 'body'>) => apiRequest<T>('DELETE', path, options),
 };
