@@ -57,7 +57,7 @@ describe('resolveCautions', () => {
     expect(notes.map((c) => c.text)).toEqual([
       'Open slowly.',
       'Relief valve below the lowest-rated part.',
-      `PPE for liquid oxygen: ${PROPELLANTS.lox.ppe.join('; ')}.`,
+      `PPE for liquid oxygen: ${PROPELLANTS.lox.ppe.map((item) => item.text).join('; ')}.`,
     ]);
     expect(notes[1]!.sources[0]).toMatchObject({ type: 'hazard', hazardCode: 'HZ-001', mitigationId: 11, verificationStatus: 'in-progress' });
   });
