@@ -2,7 +2,7 @@ import '@testing-library/jest-dom/vitest';
 import { cleanup, configure } from '@testing-library/react';
 import { afterEach, vi } from 'vitest';
 
-// findBy* waits up to 1 s by default; on a loaded 2-core machine the first render of a page can take longer.
+// findBy*/waitFor give up after 1 s by default; a loaded 2-core machine can take longer to render a page.
 configure({ asyncUtilTimeout: 5000 });
 
 afterEach(() => {

@@ -135,9 +135,13 @@ export function createUploadStore(dataDir: string, log: (message: string, error?
       }
     },
     async remove(upload, transaction) {
-      const storedName = upload.storedName;
+      const { id, storedName } = upload;
       await upload.destroy({ transaction });
-      transaction.afterCommit(() => void unlink(storedName));
+      // Sequelize awaits this before the transaction call returns, so the answer goes out with the file gone. It also
+      // runs after a commit that failed, so the file goes only if its row really has.
+      transaction.afterCommit(async () => {
+        if ((await Upload.count({ where: { id } })) === 0) await unlink(storedName);
+      });
     },
     async send(res, upload) {
       const inline = isImageType(upload.mediaType) || upload.mediaType === 'application/pdf';

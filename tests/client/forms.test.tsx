@@ -1,4 +1,4 @@
-import { screen, within } from '@testing-library/react';
+import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import { fakeApi, json } from './fake-api';
@@ -16,7 +16,8 @@ describe('sign-in form', () => {
     await user.click(await screen.findByRole('button', { name: 'Sign in' }));
 
     const email = screen.getByLabelText('E-mail');
-    expect(email).toHaveAttribute('aria-invalid', 'true');
+    // Validation settles after the click returns (the resolver is async).
+    await waitFor(() => expect(email).toHaveAttribute('aria-invalid', 'true'));
     expect(email).toHaveAccessibleDescription(/Enter a valid e-mail address/);
     expect(screen.getByLabelText('Password')).toHaveAccessibleDescription(/Enter your password/);
   });
