@@ -1,7 +1,7 @@
 import type { z } from 'zod';
 import type { Transaction } from 'sequelize';
 import { idParamSchema } from '../../src/contract/hazards';
-import { crewPlanInputSchema, manningQuerySchema, type CrewPlanDto, type ManningDto } from '../../src/contract/procedures';
+import { crewPlanInputSchema, manningQuerySchema, type CrewPersonDto, type CrewPlanDto, type ManningDto } from '../../src/contract/procedures';
 import { manningCheck, neededStations } from '../../src/domain/procedures/manning';
 import { badRequest, notFound } from '../http/errors';
 import { route } from '../http/route';
@@ -82,6 +82,16 @@ export function crewPlanRoutes() {
       handler: async ({ user }) => {
         const plans = await CrewPlan.findAll({ where: { teamId: user!.teamId }, include: PLAN_INCLUDE, order: [['id', 'ASC']] });
         return plans.map(planDto);
+      },
+    }),
+    route({
+      // Who can be put on a crew: the team's active people. Listed before /crew-plans/:id so it is not read as an id.
+      method: 'get',
+      path: '/crew-plans/people',
+      access: WRITERS,
+      handler: async ({ user }): Promise<CrewPersonDto[]> => {
+        const users = await User.findAll({ where: { teamId: user!.teamId, active: true }, order: [['name', 'ASC'], ['id', 'ASC']] });
+        return users.map((u) => ({ id: u.id, name: u.name, roles: u.roles }));
       },
     }),
     route({

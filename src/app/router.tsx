@@ -16,7 +16,14 @@ import { RiskMatricesPage, RiskMatrixPage } from '../features/hazards/components
 import { HomePage } from '../features/home/components/HomePage';
 import { MailOutboxPage } from '../features/mail/components/MailOutboxPage';
 import { PeoplePage } from '../features/people/components/PeoplePage';
-import { ProceduresPage } from '../features/procedures/components/ProceduresPage';
+import { CrewPage } from '../features/procedures/components/CrewPage';
+import { DiffPage } from '../features/procedures/components/DiffPage';
+import { DraftEditorPage } from '../features/procedures/components/DraftEditorPage';
+import { ProcedureListPage } from '../features/procedures/components/ProcedureListPage';
+import { ProcedurePage } from '../features/procedures/components/ProcedurePage';
+import { ProcedurePrintPage } from '../features/procedures/components/ProcedurePrintPage';
+import { RevisionPage } from '../features/procedures/components/RevisionPage';
+import { StationsPage } from '../features/procedures/components/StationsPage';
 import { ProfilePage } from '../features/profile/components/ProfilePage';
 import { RecordsPage } from '../features/records/components/RecordsPage';
 import { AppShell } from './layout/AppShell';
@@ -65,7 +72,14 @@ export const routes: RouteObject[] = [
               { path: 'hazards/print', element: <HazardRegisterPrintPage /> },
               { path: 'hazards/print/:id', element: <HazardPrintPage /> },
               { path: 'hazards/:id', element: <HazardDetailPage /> },
-              { path: 'procedures', element: <ProceduresPage /> },
+              { path: 'procedures', element: <ProcedureListPage /> },
+              { path: 'procedures/stations', element: <StationsPage /> },
+              { path: 'procedures/:id', element: <ProcedurePage /> },
+              { path: 'procedures/:id/crew', element: <CrewPage /> },
+              { path: 'procedures/:id/diff', element: <DiffPage /> },
+              { path: 'procedures/:id/revisions/:rev', element: <RevisionPage /> },
+              { path: 'procedures/:id/revisions/:rev/edit', element: <DraftEditorPage /> },
+              { path: 'procedures/:id/revisions/:rev/print', element: <ProcedurePrintPage /> },
               { path: 'counts', element: <LiveCountPage /> },
               { path: 'records', element: <RecordsPage /> },
               { path: 'profile', element: <ProfilePage /> },

@@ -7,6 +7,7 @@ import { z } from 'zod';
 import type { ResolvedCaution } from '../domain/procedures/cautions';
 import type { RevisionDiff } from '../domain/procedures/diff';
 import type { ManningCheck } from '../domain/procedures/manning';
+import type { Role } from '../domain/people/roles';
 import { REVISION_STATUSES, SIGNOFF_ROLES, type RevisionStatus, type SignoffRole } from '../domain/procedures/release';
 import {
   PERSONNEL_CHECKS,
@@ -108,6 +109,13 @@ export interface CrewPlanDto {
   assignments: CrewAssignmentDto[];
   createdAt: string;
   updatedAt: string;
+}
+
+/** A person who can be put on a crew (GET /api/crew-plans/people). */
+export interface CrewPersonDto {
+  id: number;
+  name: string;
+  roles: Role[];
 }
 
 export const manningQuerySchema = z.strictObject({

@@ -137,4 +137,17 @@ describe('crew plans and the manning check', () => {
     await del(admin, `/api/crew-plans/${plan.id}`).expect(204);
     await operator.get(`/api/crew-plans/${plan.id}`).expect(404);
   });
+
+  it('lists the active people a crew can be drawn from to those who write crew plans', async () => {
+    const people = (await conductor.get('/api/crew-plans/people').expect(200)).body as { id: number; name: string; roles: string[] }[];
+    expect(people.map((p) => p.name)).toContain('Tomasz Reyes');
+    expect(people.find((p) => p.name === 'Priya Halloran')!.roles).toEqual(['safety']);
+    expect(Object.keys(people[0]!).sort()).toEqual(['id', 'name', 'roles']);
+    // 'Leaving Soon' was deactivated by the crew plan test above.
+    const leaver = await User.findOne({ where: { active: false } });
+    expect(leaver).not.toBeNull();
+    expect(people.some((p) => p.id === leaver!.id)).toBe(false);
+    await operator.get('/api/crew-plans/people').expect(403);
+    await safety.get('/api/crew-plans/people').expect(403);
+  });
 });
