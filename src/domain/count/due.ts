@@ -167,3 +167,20 @@ export function dueEvents(state: CountState, nowMs: number): DueDraft[] {
   }
   return out;
 }
+
+/**
+ * After a server restart nobody could see a live count while it was down: hold it, so the crew looks before
+ * the clock runs on. Nothing for a count that is not live or already holding. Append after the catch-up.
+ */
+export function restartHoldDrafts(state: CountState): EventDraft[] {
+  if (state.status !== 'counting') return [];
+  return [
+    draft('hold:called', {
+      holdId: nextHoldId(state),
+      category: 'other',
+      reason: 'server restarted: check the stations before resuming',
+      source: 'restart',
+      calledByStation: null,
+    }),
+  ];
+}
