@@ -2,6 +2,8 @@
  * The typed socket.io event map both sides import. Commands go client -> server and may be acknowledged
  * with `{ data } | { error, details }`; facts go server -> client, named in the past tense.
  */
+import type { CountCommandInput, CountEventDto, CountStateDto } from './count';
+
 export type Ack<T> = (reply: { data: T } | { error: string; details?: { path: string; message: string }[] }) => void;
 
 export interface ClockSample {
@@ -12,10 +14,17 @@ export interface ClockSample {
 
 export interface ClientToServerEvents {
   'clock:sync': (payload: { clientSentAt: number }, ack: Ack<ClockSample>) => void;
+  /** Watch a count: the events after `sinceSeq` and the state they fold to; then `count:event` facts follow. */
+  'count:join': (payload: { countId: number; sinceSeq: number }, ack: Ack<{ events: CountEventDto[]; state: CountStateDto }>) => void;
+  'count:leave': (payload: { countId: number }) => void;
+  /** The events the command appended, or the refusal in words. */
+  'count:command': (payload: { countId: number; command: CountCommandInput }, ack: Ack<{ events: CountEventDto[] }>) => void;
 }
 
 export interface ServerToClientEvents {
   'session:ended': (payload: { reason: string }) => void;
+  /** One stored event of a count this socket has joined, in seq order. */
+  'count:event': (event: CountEventDto) => void;
 }
 
 export interface SocketData {

@@ -5,7 +5,7 @@ import { fileURLToPath } from 'node:url';
 
 // src/domain must stay pure TypeScript: no React, no Node APIs, no clock, nothing from outside src/domain.
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '../../src/domain');
-const owned = ['hazards', 'calc', 'propellants', 'procedures'];
+const owned = ['hazards', 'calc', 'propellants', 'procedures', 'count'];
 
 function files(dir: string): string[] {
   return readdirSync(dir, { withFileTypes: true }).flatMap((e) =>

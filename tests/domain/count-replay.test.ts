@@ -1,0 +1,79 @@
+import { describe, expect, it } from 'vitest';
+import { dueEvents, nextDueAt, stateAt, tAt, type CountState } from '../../src/domain/count';
+import { at, conductor, prop, range, Sim, START } from './count-fixture';
+
+describe('dueEvents', () => {
+  it('catches up over several steps, each at its own exact instant', () => {
+    const sim = new Sim();
+    sim.ok(conductor, { type: 'count:start' }, START);
+    // Nothing appended yet: the server slept through half an hour.
+    expect(sim.events.map((e) => e.type)).toEqual(['count:created', 'count:started']);
+    expect(nextDueAt(sim.state)).toBe(START);
+    const due = dueEvents(sim.state, at(1830));
+    // T-30:00 at START: s1 and the untimed s2 after it; T-20:00 600 s on; the built-in hold at T-15:00 900 s on,
+    // 600 s long; T-10:00 300 s of clock after it ends, at START + 1800 s, opens the poll.
+    expect(due.map((d) => [d.type, 'stepKey' in d.payload ? d.payload.stepKey : null, d.at])).toEqual([
+      ['step:reached', 's1', at(0)],
+      ['step:reached', 's2', at(0)],
+      ['step:reached', 's3', at(600)],
+      ['step:reached', 's4', at(900)],
+      ['builtInHold:started', 's4', at(900)],
+      ['builtInHold:ended', 's4', at(1500)],
+      ['step:reached', 's5', at(1800)],
+      ['poll:opened', 's5', at(1800)],
+    ]);
+    expect(due.every((d) => d.actor === null)).toBe(true);
+    sim.advance(at(1830));
+    // Next: the poll's timeout, 60 s after it opened.
+    expect(nextDueAt(sim.state)).toBe(at(1860));
+  });
+
+  it('reaches T-0 after the steps at T-0 and before those after it', () => {
+    const sim = new Sim().toAfterPoll();
+    const due = sim.advance(at(2415));
+    expect(due.map((e) => [e.type, e.at])).toEqual([
+      ['step:reached', at(2100)],
+      ['step:reached', at(2340)],
+      ['step:reached', at(2400)],
+      ['t0:reached', at(2400)],
+      ['step:reached', at(2410)],
+    ]);
+    expect(nextDueAt(sim.state)).toBeNull();
+  });
+
+  it('makes nothing due while holding but the end of an open poll', () => {
+    const sim = new Sim();
+    sim.ok(conductor, { type: 'count:start' }, START);
+    sim.ok(range, { type: 'hold:call', category: 'range', reason: 'Gate open' }, at(10));
+    expect(nextDueAt(sim.state)).toBeNull();
+    expect(dueEvents(sim.state, at(5000))).toEqual([]);
+  });
+});
+
+describe('stateAt', () => {
+  it('equals the state folded live at each chosen instant', () => {
+    const sim = new Sim();
+    const snapshots: [number, CountState][] = [];
+    const take = (now: number) => {
+      sim.advance(now);
+      snapshots.push([now, sim.state]);
+    };
+    sim.ok(conductor, { type: 'count:start' }, START);
+    take(at(300));
+    sim.ok(prop, { type: 'hold:call', category: 'propellant', reason: 'LOX fill valve sticking' }, at(320));
+    take(at(400));
+    sim.ok(prop, { type: 'hold:clear', holdId: 'h1' }, at(500));
+    sim.ok(conductor, { type: 'count:resume' }, at(510));
+    take(at(1200));
+    take(at(2000));
+    sim.ok(prop, { type: 'poll:answer', pollId: 'p1', station: 'PROP', answer: 'nogo', reason: 'vent valve slow' }, at(2005));
+    take(at(2100));
+    for (const [instant, live] of snapshots) {
+      const past = stateAt(sim.events, instant);
+      expect(past).toEqual(live);
+      expect(tAt(past, instant)).toBe(tAt(live, instant));
+    }
+    // At START + 400 s the count stood on hold where it was called, 320 s after T-30:00: -1480 (T-24:40).
+    expect(tAt(stateAt(sim.events, at(400)), at(400))).toBe(-1480);
+  });
+});
