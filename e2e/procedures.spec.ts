@@ -1,15 +1,17 @@
 import type { APIRequestContext, Locator, Page } from '@playwright/test';
+import { makePng } from '../tests/helpers/png';
 import { expect, storageStateFor, test } from './fixtures';
 
 /**
  * The procedure journey on a procedure of its own (imported from the demo's released revision), so the demo
  * procedure the tour photographs stays as seeded: import with every problem listed, reorder steps by mouse and
- * keyboard, save and reload, field-level checks, two-person release, the printed cautions, and a reader who
- * cannot edit.
+ * keyboard, save and reload, field-level checks, a photo on a step, two-person release, the printed cautions and
+ * photo, and a reader who cannot edit.
  */
 test.describe.configure({ mode: 'serial' });
 
 const name = `Kestrel-2 cold-flow rehearsal ${Date.now()}`;
+const photoCaption = 'Keep-out rope at the stand gate';
 let procedureId = 0;
 
 async function csrf(request: APIRequestContext): Promise<string> {
@@ -142,6 +144,31 @@ test.describe('test conductor', () => {
     expect(kept.phases[0].steps[3]).toMatchObject({ key: 'wind', tSeconds: -6900 });
   });
 
+  test('attaches a photo to a step of the draft; the revision page shows it beside that step', async ({ page, consoleErrors }) => {
+    void consoleErrors;
+    await page.goto(`/procedures/${procedureId}/revisions/1`);
+    await page.getByRole('button', { name: 'Attach a diagram or photo' }).click();
+    const form = page.getByRole('form', { name: 'Attach a diagram or photo' });
+    await form.getByLabel('File').setInputFiles({ name: 'stand-gate.png', mimeType: 'image/png', buffer: makePng(64, 40, [60, 140, 90]) });
+    await form.getByLabel('Caption (optional)').fill(photoCaption);
+    await form.getByLabel('Attach to').selectOption('walkdown');
+    await form.getByRole('button', { name: 'Attach file' }).click();
+    await expect(page.getByText(`Added “${photoCaption}”.`)).toBeVisible();
+
+    const img = page.locator('[data-step-key="walkdown"]').getByRole('img', { name: `Image: ${photoCaption}` });
+    await img.scrollIntoViewIfNeeded(); // it loads lazily
+    await expect(img).toBeVisible();
+    await expect.poll(() => img.evaluate((el: HTMLImageElement) => el.complete && el.naturalWidth)).toBe(64);
+    const rev = await (await page.request.get(`/api/procedures/${procedureId}/revisions/1`)).json();
+    expect(rev.attachments).toEqual([expect.objectContaining({ stepKey: 'walkdown', caption: photoCaption })]);
+
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.goto(`/procedures/${procedureId}/revisions/1`);
+    await expect(page.locator('[data-step-key="walkdown"]').getByRole('img', { name: `Image: ${photoCaption}` })).toBeAttached();
+    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+    expect(overflow, 'revision page with a photo scrolls sideways at 390 px').toBeLessThanOrEqual(0);
+  });
+
   test('signs as test conductor; one signature does not release', async ({ page, consoleErrors }) => {
     void consoleErrors;
     await page.goto(`/procedures/${procedureId}/revisions/1`);
@@ -202,6 +229,7 @@ test.describe('auditor', () => {
     await expect(cautions).toContainText('WARNING');
     await expect(cautions).toContainText(warning.text);
     await expect(row.getByRole('cell').nth(1)).toHaveText(walkdown.t);
+    await expect(row.getByRole('img', { name: `Image: ${photoCaption}` })).toBeVisible();
     await expect(page.getByText('Signed in Holdfire by Marek Lindqvist')).toBeVisible();
     await expect(page.getByText('Signed in Holdfire by Priya Halloran')).toBeVisible();
     await expect(page.getByText('Draft — not for use in a count')).toHaveCount(0);

@@ -118,7 +118,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...propellantRoutes(),
     ...calcRoutes(),
     ...uploadRoutes({ uploads }),
-    ...procedureRoutes(),
+    ...procedureRoutes({ uploads }),
     ...stationRoutes(),
     ...crewPlanRoutes(),
   ];

@@ -9,6 +9,7 @@ import { MailMessage } from './mail-message.model';
 import { MitigationEvidence } from './mitigation-evidence.model';
 import { Mitigation } from './mitigation.model';
 import { PasswordReset } from './password-reset.model';
+import { ProcedureAttachment } from './procedure-attachment.model';
 import { ProcedureRevision } from './procedure-revision.model';
 import { ProcedureSignoff } from './procedure-signoff.model';
 import { Procedure } from './procedure.model';
@@ -41,6 +42,7 @@ const MODELS = {
   Procedure,
   ProcedureRevision,
   ProcedureSignoff,
+  ProcedureAttachment,
   CrewPlan,
   CrewAssignment,
 };
@@ -87,6 +89,10 @@ export function initModels(sequelize: Sequelize) {
   ProcedureRevision.belongsTo(User, { as: 'updatedBy', foreignKey: 'updatedById' });
   ProcedureRevision.hasMany(ProcedureSignoff, { as: 'signoffs', foreignKey: 'revisionId', onDelete: 'CASCADE' });
   ProcedureSignoff.belongsTo(User, { foreignKey: 'userId' });
+  ProcedureRevision.hasMany(ProcedureAttachment, { as: 'attachments', foreignKey: 'revisionId', onDelete: 'CASCADE' });
+  ProcedureAttachment.belongsTo(ProcedureRevision, { foreignKey: 'revisionId' });
+  ProcedureAttachment.belongsTo(Upload, { as: 'upload', foreignKey: 'uploadId' });
+  ProcedureAttachment.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
   Team.hasMany(CrewPlan, { foreignKey: 'teamId' });
   CrewPlan.belongsTo(Procedure, { as: 'procedure', foreignKey: 'procedureId' });
   CrewPlan.hasMany(CrewAssignment, { as: 'assignments', foreignKey: 'crewPlanId', onDelete: 'CASCADE' });
@@ -108,6 +114,7 @@ export {
   MitigationEvidence,
   PasswordReset,
   Procedure,
+  ProcedureAttachment,
   ProcedureRevision,
   ProcedureSignoff,
   PropellantCautionHistory,

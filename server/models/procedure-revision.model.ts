@@ -12,6 +12,7 @@ import type { ResolvedCaution } from '../../src/domain/procedures/cautions';
 import type { RevisionStatus } from '../../src/domain/procedures/release';
 import type { Phase } from '../../src/domain/procedures/steps';
 import { jsonColumn } from './json-column';
+import type { ProcedureAttachment } from './procedure-attachment.model';
 import type { ProcedureSignoff } from './procedure-signoff.model';
 import type { Procedure } from './procedure.model';
 import type { User } from './user.model';
@@ -32,6 +33,7 @@ export class ProcedureRevision extends Model<InferAttributes<ProcedureRevision>,
   declare updatedAt: CreationOptional<Date>;
 
   declare signoffs?: NonAttribute<ProcedureSignoff[]>;
+  declare attachments?: NonAttribute<ProcedureAttachment[]>;
 
   static initModel(sequelize: Sequelize) {
     ProcedureRevision.init(

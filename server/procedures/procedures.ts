@@ -2,6 +2,7 @@
 import { randomBytes } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import type {
+  AttachmentDto,
   PhaseParsed,
   ProcedureDto,
   ProcedureSummaryDto,
@@ -19,11 +20,33 @@ import { formatTMinus } from '../../src/domain/procedures/tminus';
 import { PROPELLANT_IDS, PROPELLANTS, type PropellantId } from '../../src/domain/propellants/library';
 import { badRequest, notFound } from '../http/errors';
 import { hazardCode } from '../hazards/hazards';
-import { Hazard, Mitigation, Procedure, ProcedureRevision, ProcedureSignoff, PropellantCautionOverride, Station } from '../models';
+import {
+  Hazard,
+  Mitigation,
+  Procedure,
+  ProcedureAttachment,
+  ProcedureRevision,
+  ProcedureSignoff,
+  PropellantCautionOverride,
+  Station,
+  Upload,
+  User,
+} from '../models';
+import { uploadDto, type UploadStore } from '../uploads';
 
 export const tx = <T>(fn: (t: Transaction) => Promise<T>) => Procedure.sequelize!.transaction(fn);
 
-const REVISION_INCLUDE = [{ model: ProcedureSignoff, as: 'signoffs' }];
+const REVISION_INCLUDE = [
+  { model: ProcedureSignoff, as: 'signoffs' },
+  {
+    model: ProcedureAttachment,
+    as: 'attachments',
+    include: [
+      { model: Upload, as: 'upload' },
+      { model: User, as: 'createdBy', attributes: ['id', 'name'] },
+    ],
+  },
+];
 
 export async function findProcedure(teamId: number, id: number, transaction?: Transaction): Promise<Procedure> {
   const procedure = await Procedure.findOne({
@@ -148,6 +171,40 @@ export function currentCautions(phases: readonly Phase[], ctx: CautionContext): 
   return out;
 }
 
+// ---------------------------------------------------------------- attachments
+
+export function stepKeysOf(phases: readonly Phase[]): Set<string> {
+  return new Set(phases.flatMap((ph) => ph.steps.map((st) => st.key)));
+}
+
+/**
+ * Deletes these uploads (row now, file after commit) unless some revision's attachment still links to one.
+ * Call it after the links that were going have been destroyed in the same transaction.
+ */
+export async function removeUnusedUploads(store: UploadStore, files: readonly Upload[], transaction: Transaction): Promise<void> {
+  const seen = new Set<number>();
+  for (const upload of files) {
+    if (seen.has(upload.id)) continue;
+    seen.add(upload.id);
+    if ((await ProcedureAttachment.count({ where: { uploadId: upload.id }, transaction })) === 0) await store.remove(upload, transaction);
+  }
+}
+
+export function attachmentDtos(rev: ProcedureRevision): AttachmentDto[] {
+  const keys = stepKeysOf(rev.phases);
+  return [...(rev.attachments ?? [])]
+    .sort((a, b) => a.id - b.id)
+    .map((a) => ({
+      id: a.id,
+      stepKey: a.stepKey,
+      stepRemoved: a.stepKey !== null && !keys.has(a.stepKey),
+      caption: a.caption,
+      file: uploadDto(a.upload!),
+      addedBy: a.createdBy?.name ?? null,
+      createdAt: a.createdAt.toISOString(),
+    }));
+}
+
 // ---------------------------------------------------------------- DTOs
 
 export function signoffDtos(rev: ProcedureRevision): SignoffDto[] {
@@ -219,6 +276,7 @@ export function revisionDto(p: Procedure, rev: ProcedureRevision, ctx: CautionCo
     notCountableReason: c.countable ? null : c.message,
     cautionsChangedSinceRelease: changed,
     neededStations: neededStations(rev.phases, p.stations),
+    attachments: attachmentDtos(rev),
     createdAt: rev.createdAt.toISOString(),
     updatedAt: rev.updatedAt.toISOString(),
   };

@@ -1,5 +1,8 @@
+import type { Transaction } from 'sequelize';
 import { z } from 'zod';
 import {
+  attachmentInputSchema,
+  attachmentParamSchema,
   diffQuerySchema,
   procedureCreateInputSchema,
   procedureParamSchema,
@@ -17,9 +20,9 @@ import {
 import { diffRevisions } from '../../src/domain/procedures/diff';
 import { checkSignoff } from '../../src/domain/procedures/release';
 import { stepCount, validatePhases } from '../../src/domain/procedures/steps';
-import { HttpError, badRequest, conflict, zodDetails } from '../http/errors';
+import { HttpError, badRequest, conflict, notFound, zodDetails } from '../http/errors';
 import { route } from '../http/route';
-import { Procedure, ProcedureRevision, ProcedureSignoff } from '../models';
+import { Procedure, ProcedureAttachment, ProcedureRevision, ProcedureSignoff, type Upload } from '../models';
 import {
   cautionContext,
   checkListedStations,
@@ -30,10 +33,13 @@ import {
   procedureDto,
   procedureSummary,
   referencesOf,
+  removeUnusedUploads,
   revisionDto,
   revisionsOf,
+  stepKeysOf,
   tx,
 } from '../procedures/procedures';
+import { acceptUpload, singleFileUpload, type UploadStore } from '../uploads';
 
 /** Conductors write procedures; safety officers and admins too. Everyone signed in reads them. */
 const WRITERS = ['conductor', 'safety', 'admin'] as const;
@@ -45,6 +51,13 @@ function frozen(number: number): HttpError {
 
 const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
 
+/** The diagrams are part of what is signed: changing them on a signed draft withdraws its sign-offs. */
+async function clearSignoffs(revisionId: number, signed: number, transaction: Transaction): Promise<boolean> {
+  if (signed === 0) return false;
+  await ProcedureSignoff.destroy({ where: { revisionId }, transaction });
+  return true;
+}
+
 const slug = (s: string) =>
   s
     .toLowerCase()
@@ -52,7 +65,7 @@ const slug = (s: string) =>
     .replace(/^-+|-+$/g, '')
     .slice(0, 60) || 'procedure';
 
-export function procedureRoutes() {
+export function procedureRoutes({ uploads }: { uploads: UploadStore }) {
   return [
     route({
       method: 'get',
@@ -151,7 +164,7 @@ export function procedureRoutes() {
           const open = revisions.find((r) => r.status === 'draft');
           if (open) throw conflict(`Revision ${open.number} is still a draft. Finish and release it, or discard it, before opening another.`, 'draft_open');
           const latest = revisions[revisions.length - 1]!;
-          await ProcedureRevision.create(
+          const draft = await ProcedureRevision.create(
             {
               procedureId: p.id,
               number: latest.number + 1,
@@ -163,6 +176,11 @@ export function procedureRoutes() {
               createdById: user!.id,
               updatedById: user!.id,
             },
+            { transaction: t },
+          );
+          // The diagrams come along: the same uploads, linked again from the new draft.
+          await ProcedureAttachment.bulkCreate(
+            (latest.attachments ?? []).map((a) => ({ revisionId: draft.id, stepKey: a.stepKey, uploadId: a.uploadId, caption: a.caption, createdById: a.createdById })),
             { transaction: t },
           );
           const fresh = await findProcedure(teamId, p.id, t);
@@ -223,8 +241,66 @@ export function procedureRoutes() {
           const rev = findRevision(p, params.rev);
           if (rev.status !== 'draft') throw frozen(rev.number);
           if (revisionsOf(p).length === 1) throw conflict('This is the procedure\u2019s only revision; edit it instead of discarding it.', 'only_revision');
+          const files = (rev.attachments ?? []).map((a) => a.upload!);
+          await ProcedureAttachment.destroy({ where: { revisionId: rev.id }, transaction: t });
           await rev.destroy({ transaction: t });
+          await removeUnusedUploads(uploads, files, t);
           return procedureDto(await findProcedure(teamId, p.id, t));
+        });
+      },
+    }),
+    route({
+      method: 'post',
+      path: '/procedures/:id/revisions/:rev/attachments',
+      access: WRITERS,
+      status: 201,
+      params: revisionParamSchema,
+      // Access is checked before the body is read; the file waits in memory until every check has passed.
+      before: [singleFileUpload('file')],
+      body: attachmentInputSchema,
+      handler: async ({ req, params, body, user }): Promise<RevisionSaveDto> => {
+        const teamId = user!.teamId;
+        const file = await acceptUpload(req.file, 'file');
+        return uploads.transaction(async ({ transaction: t, save }) => {
+          const p = await findProcedure(teamId, params.id, t);
+          const rev = findRevision(p, params.rev);
+          if (rev.status !== 'draft') throw frozen(rev.number);
+          if (body.stepKey !== null && !stepKeysOf(rev.phases).has(body.stepKey)) {
+            throw badRequest(`Revision ${rev.number} has no such step. Save your edits first, then attach the file.`, 'validation_failed', [
+              { path: 'stepKey', message: 'Not a step of this revision.' },
+            ]);
+          }
+          const upload = await save(file, { teamId, userId: user!.id });
+          await ProcedureAttachment.create(
+            { revisionId: rev.id, stepKey: body.stepKey, uploadId: upload.id, caption: body.caption, createdById: user!.id },
+            { transaction: t },
+          );
+          const signoffsCleared = await clearSignoffs(rev.id, rev.signoffs?.length ?? 0, t);
+          const fresh = await findProcedure(teamId, p.id, t);
+          return { ...revisionDto(fresh, findRevision(fresh, rev.number), await cautionContext(teamId, t)), signoffsCleared };
+        });
+      },
+    }),
+    route({
+      method: 'delete',
+      path: '/procedures/:id/revisions/:rev/attachments/:attachmentId',
+      access: WRITERS,
+      params: attachmentParamSchema,
+      handler: async ({ params, user }): Promise<RevisionSaveDto> => {
+        const teamId = user!.teamId;
+        return tx(async (t) => {
+          const p = await findProcedure(teamId, params.id, t);
+          const rev = findRevision(p, params.rev);
+          const attachment = (rev.attachments ?? []).find((a) => a.id === params.attachmentId);
+          if (!attachment) throw notFound(`Revision ${rev.number} has no such attachment.`);
+          if (rev.status !== 'draft') throw frozen(rev.number);
+          const file: Upload = attachment.upload!;
+          await attachment.destroy({ transaction: t });
+          // Earlier revisions may still show the same file: it goes only with its last link.
+          await removeUnusedUploads(uploads, [file], t);
+          const signoffsCleared = await clearSignoffs(rev.id, rev.signoffs?.length ?? 0, t);
+          const fresh = await findProcedure(teamId, p.id, t);
+          return { ...revisionDto(fresh, findRevision(fresh, rev.number), await cautionContext(teamId, t)), signoffsCleared };
         });
       },
     }),

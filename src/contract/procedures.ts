@@ -21,6 +21,7 @@ import {
 } from '../domain/procedures/steps';
 import { formatTMinus, MAX_COUNT_SECONDS, parseTMinus, T_MINUS_HINT } from '../domain/procedures/tminus';
 import { PROPELLANT_IDS, type PropellantId } from '../domain/propellants/library';
+import type { UploadDto } from './uploads';
 
 export const MAX_PHASES = 20;
 export const MAX_STEPS_PER_PHASE = 200;
@@ -159,6 +160,17 @@ export type ProcedureUpdateInput = z.input<typeof procedureUpdateInputSchema>;
 export const procedureParamSchema = z.strictObject({ id: idString });
 /** :rev is the revision number (1, 2, ...), as printed on the procedure. */
 export const revisionParamSchema = z.strictObject({ id: idString, rev: idString });
+export const ATTACHMENT_CAPTION_MAX = 200;
+export const attachmentParamSchema = z.strictObject({ id: idString, rev: idString, attachmentId: idString });
+/** The text fields sent with an attachment's file (multipart). An empty stepKey means the whole procedure. */
+export const attachmentInputSchema = z.strictObject({
+  caption: optionalText(ATTACHMENT_CAPTION_MAX).default(''),
+  stepKey: z
+    .union([z.literal(''), stepKeySchema])
+    .optional()
+    .transform((k) => k || null),
+});
+export type AttachmentInput = z.input<typeof attachmentInputSchema>;
 export const diffQuerySchema = z.strictObject({ from: idString, to: idString });
 export const signoffInputSchema = z.strictObject({ as: z.enum(SIGNOFF_ROLES) });
 export type SignoffInput = z.input<typeof signoffInputSchema>;
@@ -346,6 +358,22 @@ export interface PhaseDto {
   steps: StepDto[];
 }
 
+/** A diagram or photo on a revision. */
+export interface AttachmentDto {
+  id: number;
+  /** The step it belongs to, or null for the whole procedure. */
+  stepKey: string | null;
+  /**
+   * True when stepKey names a step this revision no longer has (the step was deleted after the file was
+   * attached): the file is then shown with the procedure-level ones, with a note.
+   */
+  stepRemoved: boolean;
+  caption: string;
+  file: UploadDto;
+  addedBy: string | null;
+  createdAt: string;
+}
+
 export interface RevisionDto {
   id: number;
   procedureId: number;
@@ -365,6 +393,8 @@ export interface RevisionDto {
    */
   cautionsChangedSinceRelease: boolean;
   neededStations: string[];
+  /** Diagrams and photos, oldest first. Not part of the JSON exchange format. */
+  attachments: AttachmentDto[];
   createdAt: string;
   updatedAt: string;
 }

@@ -4,7 +4,8 @@ import { Button } from '../../../components/ui/Button';
 import { Notice } from '../../../components/ui/Notice';
 import { Loading } from '../../../components/ui/Page';
 import { Time } from '../../../components/ui/Time';
-import type { ProcedureDto, RevisionDto } from '../../../contract/procedures';
+import type { AttachmentDto, ProcedureDto, RevisionDto } from '../../../contract/procedures';
+import { isImageType } from '../../../contract/uploads';
 import { SIGNOFF_ROLES } from '../../../domain/procedures/release';
 import { formatDateTime } from '../../../lib/dates';
 import { useProcedure } from '../api/getProcedure';
@@ -13,6 +14,7 @@ import { useHazardOptions } from '../api/listHazardOptions';
 import { useStations } from '../api/listStations';
 import { stepTotal } from '../lib/draft';
 import { idParam, kindLabel, RELEASE_CAUTION, SIGNOFF_LABELS } from '../lib/format';
+import { attachmentsOfStep, attachmentTitle, procedureLevel } from './Attachments';
 import { CautionList } from './CautionList';
 import { ProcedureLoadError, ProcedureMissing } from './ProcedurePage';
 import { firstNumbers, makeLookups, StepDetails, TimeMark, type Lookups } from './StepView';
@@ -53,6 +55,54 @@ function PrintView({ id, rev }: { id: number; rev: number }) {
       </div>
       <PrintedProcedure procedure={p} revision={r} lookups={makeLookups(stations.data, hazards.data)} />
     </div>
+  );
+}
+
+/** The whole procedure's diagrams and photos, at a readable size, before the steps. */
+function PrintedAttachments({ attachments }: { attachments: AttachmentDto[] }) {
+  if (attachments.length === 0) return null;
+  return (
+    <section aria-labelledby="print-diagrams" className="hf-print-avoid-break">
+      <h2 id="print-diagrams" className="mb-2 text-2xl font-bold">
+        Diagrams and photos
+      </h2>
+      <ul className="flex flex-wrap gap-4">
+        {attachments.map((a) => (
+          <li key={a.id} className="min-w-0 max-w-full">
+            <figure className="flex min-w-0 flex-col gap-1">
+              {isImageType(a.file.mediaType) ? (
+                <img src={a.file.url} alt={`Image: ${attachmentTitle(a)}`} className="hf-evidence-image block h-auto max-h-64 w-auto max-w-full border-2 border-line object-contain" />
+              ) : null}
+              <figcaption className="text-sm [overflow-wrap:anywhere]">
+                <span className="font-bold">{attachmentTitle(a)}</span>
+                {isImageType(a.file.mediaType) ? null : <> — file {a.file.name}, kept in Holdfire</>}
+                {a.stepRemoved ? <> (its step is no longer in this revision)</> : null}
+              </figcaption>
+            </figure>
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}
+
+/** A step's own files, small, inside its row: images as thumbnails, other files by name. */
+function StepFiles({ attachments, number }: { attachments: AttachmentDto[]; number: number }) {
+  if (attachments.length === 0) return null;
+  return (
+    <ul aria-label={`Diagrams and photos for step ${number}`} className="mt-2 flex flex-wrap gap-2">
+      {attachments.map((a) => (
+        <li key={a.id} className="min-w-0 max-w-[12rem]">
+          {isImageType(a.file.mediaType) ? (
+            <img src={a.file.url} alt={`Image: ${attachmentTitle(a)}`} className="hf-evidence-image block h-auto max-h-28 w-auto max-w-full border-2 border-line object-contain" />
+          ) : null}
+          <span className="block text-xs [overflow-wrap:anywhere]">
+            {attachmentTitle(a)}
+            {isImageType(a.file.mediaType) ? null : ` (file ${a.file.name}, kept in Holdfire)`}
+          </span>
+        </li>
+      ))}
+    </ul>
   );
 }
 
@@ -118,6 +168,8 @@ export function PrintedProcedure({ procedure: p, revision: r, lookups }: { proce
         </Notice>
       ) : null}
 
+      <PrintedAttachments attachments={procedureLevel(r)} />
+
       {r.phases.map((phase, pi) => (
         <section key={phase.key} aria-labelledby={`print-phase-${phase.key}`} className="hf-print-page-flow">
           <h2 id={`print-phase-${phase.key}`} className="mb-2 text-2xl font-bold">
@@ -164,6 +216,7 @@ export function PrintedProcedure({ procedure: p, revision: r, lookups }: { proce
                           <span className="block text-sm font-bold">{kindLabel(step.kind)}</span>
                           <span className="block">{step.instruction}</span>
                           <StepDetails step={step} lookups={lookups} />
+                          <StepFiles attachments={attachmentsOfStep(r, step.key)} number={n} />
                         </td>
                         <td className="border-2 border-line p-1.5">
                           <CautionList cautions={step.cautions} label={`Cautions for step ${n}`} compact />

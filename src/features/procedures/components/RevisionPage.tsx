@@ -10,6 +10,7 @@ import { useHazardOptions } from '../api/listHazardOptions';
 import { useStations } from '../api/listStations';
 import { stepTotal } from '../lib/draft';
 import { canWriteProcedures, idParam } from '../lib/format';
+import { AttachmentList, attachmentsOfStep, DiagramsSection } from './Attachments';
 import { ProcedureLoadError, ProcedureMissing } from './ProcedurePage';
 import { ProceduresNav } from './ProceduresNav';
 import { RevisionBadge } from './RevisionBadge';
@@ -117,6 +118,13 @@ function RevisionView({ id, rev }: { id: number; rev: number }) {
           </nav>
         ) : null}
 
+        <section aria-labelledby="diagrams" className="min-w-0">
+          <h2 id="diagrams" className="mb-3 border-b-2 border-line pb-1 text-2xl font-bold">
+            Diagrams and photos
+          </h2>
+          <DiagramsSection revision={r} canEdit={canWrite} />
+        </section>
+
         {steps === 0 && r.phases.length === 0 ? (
           <p>
             This revision has no phases or steps yet.
@@ -128,7 +136,18 @@ function RevisionView({ id, rev }: { id: number; rev: number }) {
             ) : null}
           </p>
         ) : (
-          <PhaseList phases={r.phases} lookups={lookups} />
+          <PhaseList
+            phases={r.phases}
+            lookups={lookups}
+            stepExtra={(step, n) => {
+              const files = attachmentsOfStep(r, step.key);
+              return files.length ? (
+                <div className="mt-3 border-t-2 border-line-soft pt-3">
+                  <AttachmentList revision={r} attachments={files} canEdit={canWrite} label={`Diagrams and photos for step ${n}`} />
+                </div>
+              ) : null;
+            }}
+          />
         )}
 
         <div id="release" tabIndex={-1}>

@@ -65,7 +65,7 @@ export function StepDetails({ step, lookups }: { step: Step; lookups: Lookups })
 }
 
 /** One step, read-only: time, station, kind, instruction and facts beside its cautions. */
-export function StepCard({ step, number, lookups }: { step: StepDto; number: number; lookups: Lookups }) {
+export function StepCard({ step, number, lookups, children }: { step: StepDto; number: number; lookups: Lookups; children?: ReactNode }) {
   return (
     <li className="rounded-md border-2 border-line bg-surface p-3" data-step-key={step.key}>
       <div className="grid gap-3 lg:grid-cols-[minmax(0,1fr)_minmax(0,24rem)]">
@@ -83,6 +83,7 @@ export function StepCard({ step, number, lookups }: { step: StepDto; number: num
           <CautionList cautions={step.cautions} label={`Cautions for step ${number}`} />
         </div>
       </div>
+      {children}
     </li>
   );
 }
@@ -98,7 +99,16 @@ export function firstNumbers(phases: readonly { steps: readonly unknown[] }[]): 
   return out;
 }
 
-export function PhaseList({ phases, lookups }: { phases: readonly PhaseDto[]; lookups: Lookups }) {
+export function PhaseList({
+  phases,
+  lookups,
+  stepExtra,
+}: {
+  phases: readonly PhaseDto[];
+  lookups: Lookups;
+  /** Shown at the foot of each step's card (its attachments). */
+  stepExtra?: (step: StepDto, number: number) => ReactNode;
+}) {
   const starts = firstNumbers(phases);
   return (
     <div className="flex flex-col gap-6">
@@ -115,7 +125,9 @@ export function PhaseList({ phases, lookups }: { phases: readonly PhaseDto[]; lo
           ) : (
             <ol className="flex flex-col gap-3" aria-label={`Steps of ${phase.name}`}>
               {phase.steps.map((step, i) => (
-                <StepCard key={step.key} step={step} number={starts[p]! + i} lookups={lookups} />
+                <StepCard key={step.key} step={step} number={starts[p]! + i} lookups={lookups}>
+                  {stepExtra?.(step, starts[p]! + i)}
+                </StepCard>
               ))}
             </ol>
           )}
