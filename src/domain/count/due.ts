@@ -178,7 +178,7 @@ export function restartHoldDrafts(state: CountState): EventDraft[] {
     draft('hold:called', {
       holdId: nextHoldId(state),
       category: 'other',
-      reason: 'server restarted: check the stations before resuming',
+      reason: 'control server restarted',
       source: 'restart',
       calledByStation: null,
     }),
