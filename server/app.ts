@@ -14,10 +14,15 @@ import type { AppDeps } from './deps';
 import { createErrorHandler, HttpError } from './http/errors';
 import { mountRoutes, type RouteDef } from './http/route';
 import { initModels } from './models';
+import { CountEvents } from './counts/events';
+import { EventLog } from './counts/log';
+import { countRoom, CountService } from './counts/service';
 import { registerClockHandlers } from './realtime/clock.handlers';
+import { registerCountHandlers } from './realtime/count.handlers';
 import type { HoldfireServer } from './realtime/types';
 import { authRoutes } from './routes/auth.routes';
 import { calcRoutes } from './routes/calc.routes';
+import { countRoutes } from './routes/counts.routes';
 import { crewPlanRoutes } from './routes/crew-plans.routes';
 import { hazardRoutes } from './routes/hazards.routes';
 import { healthRoutes } from './routes/health.routes';
@@ -43,6 +48,9 @@ export interface HoldfireApp {
   io: HoldfireServer;
   /** Every API route with its access rule: the table the security tests walk. */
   routes: RouteDef[];
+  /** The live counts: recover() at start-up holds any count that was counting when the server stopped. */
+  counts: CountService;
+  eventLog: EventLog;
   close(): Promise<void>;
 }
 
@@ -99,6 +107,16 @@ export function createApp(deps: AppDeps): HoldfireApp {
 
   const sessions = createSessionEnder();
   const uploads = createUploadStore(config.dataDir, log);
+  const eventLog = new EventLog({ sequelize: deps.sequelize });
+  // The socket server is made below; events are only broadcast once it exists (a count cannot be reached before).
+  let io: HoldfireServer | undefined;
+  const countEvents = new CountEvents({ mailer: deps.mailer, appUrl: config.appUrl, log });
+  const counts = new CountService({
+    log: eventLog,
+    broadcast: (countId, event) => io?.to(countRoom(countId)).emit('count:event', event),
+    onEvents: (count, events) => countEvents.handle(count, events),
+    logError: log,
+  });
   const routes: RouteDef[] = [
     ...healthRoutes,
     ...authRoutes({
@@ -121,6 +139,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...procedureRoutes({ uploads }),
     ...stationRoutes(),
     ...crewPlanRoutes(),
+    ...countRoutes({ counts }),
   ];
 
   const api = express.Router();
@@ -145,11 +164,12 @@ export function createApp(deps: AppDeps): HoldfireApp {
   app.use(createErrorHandler((error) => log('unhandled error', error)));
 
   const httpServer = createServer(app);
-  const io: HoldfireServer = new Server(httpServer, { serveClient: false });
-  io.engine.use(sessionMiddleware);
-  io.engine.use(passport.initialize());
-  io.engine.use(passport.session());
-  io.use((socket, next) => {
+  io = new Server(httpServer, { serveClient: false }) as HoldfireServer;
+  const server = io;
+  server.engine.use(sessionMiddleware);
+  server.engine.use(passport.initialize());
+  server.engine.use(passport.session());
+  server.use((socket, next) => {
     const request = socket.request as Request;
     const user = request.user;
     if (!user) return next(new Error('Sign in to connect.'));
@@ -157,20 +177,26 @@ export function createApp(deps: AppDeps): HoldfireApp {
     socket.data.sid = request.sessionID;
     next();
   });
-  sessions.attach(io);
-  io.on('connection', (socket) => {
+  sessions.attach(server);
+  server.on('connection', (socket) => {
     void socket.join([sessionRoom(socket.data.sid), userRoom(socket.data.userId)]);
-    registerClockHandlers(io, socket);
+    registerClockHandlers(server, socket);
+    registerCountHandlers(server, socket, counts, log);
   });
 
   return {
     app,
     httpServer,
-    io,
+    io: server,
     routes,
+    counts,
+    eventLog,
     async close() {
       store.stopExpiringSessions();
-      await new Promise<void>((resolve) => io.close(() => resolve()));
+      counts.close();
+      await counts.settle();
+      await countEvents.settle();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
       if (httpServer.listening) await new Promise<void>((resolve) => httpServer.close(() => resolve()));
     },
   };

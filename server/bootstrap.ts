@@ -28,6 +28,8 @@ export async function startHoldfire(
   const smtp = config.smtpUrl ? undefined : await startFakeSmtp();
   const mailer = createMailer(config.smtpUrl ?? smtp!.url, config.mailFrom, { local: !config.smtpUrl });
   const holdfire = createApp({ config, sequelize, mailer, localMail: !config.smtpUrl, signInLimits: options.signInLimits, log: options.log });
+  // Before anyone connects: a count that was counting when the server stopped is put on hold, never resumed.
+  await holdfire.counts.recover();
   return {
     ...holdfire,
     config,

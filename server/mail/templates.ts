@@ -32,3 +32,26 @@ export function passwordResetMail(args: { to: string; link: string; expiresAt: D
       SIGNATURE,
   };
 }
+
+export function scrubNoticeMail(args: {
+  to: string[];
+  countName: string;
+  category: string;
+  reason: string;
+  scrubbedBy: string;
+  at: Date;
+  tMinus: string;
+  link: string;
+}): OutgoingMail {
+  return {
+    to: args.to,
+    subject: `Scrubbed: ${args.countName}`,
+    text:
+      `${args.countName} was scrubbed at ${args.tMinus} (${args.at.toUTCString()}) by ${args.scrubbedBy}.\n\n` +
+      `Category: ${args.category}\nReason: ${args.reason}\n\n` +
+      'The count has moved to its safing steps. Follow the test conductor and the safety officer on the radio: their calls govern, ' +
+      'not this message. Stay out of the keep-out area until the stand is declared safe.\n\n' +
+      `Follow the count: ${args.link}` +
+      SIGNATURE,
+  };
+}

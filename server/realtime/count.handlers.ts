@@ -1,0 +1,78 @@
+import { countCommandPayloadSchema, countJoinSchema, countLeaveSchema } from '../../src/contract/count';
+import type { CountCommand } from '../../src/domain/count/commands';
+import type { Ack } from '../../src/contract/socket';
+import { countRoom, type CountService } from '../counts/service';
+import { HttpError } from '../http/errors';
+import { stateDto } from '../routes/counts.routes';
+import { User } from '../models';
+import type { HoldfireServer, HoldfireSocket } from './types';
+
+type Issue = { path: PropertyKey[]; message: string };
+const details = (issues: readonly Issue[]) => issues.map((i) => ({ path: i.path.map(String).join('.') || '(payload)', message: i.message }));
+
+/** Only messages written for people go back; anything else is logged and answered in general words. */
+function answerError(ack: Ack<never>, error: unknown, log: (m: string, e?: unknown) => void) {
+  if (error instanceof HttpError) return ack({ error: error.message, details: error.details });
+  log('count socket handler failed', error);
+  ack({ error: 'The server could not do that. Try again; if it keeps failing, tell the test conductor on the radio.' });
+}
+
+/**
+ * A count over the socket: join (catch up from a seq, then receive every new event), leave, and commands,
+ * which take the same path as POST /api/counts/:id/commands. The person is read afresh for every command, so a
+ * role taken away or an account deactivated stops them at once.
+ */
+export function registerCountHandlers(_io: HoldfireServer, socket: HoldfireSocket, counts: CountService, log: (m: string, e?: unknown) => void) {
+  const joined = new Set<number>();
+
+  async function person() {
+    const u = await User.findByPk(socket.data.userId);
+    if (!u || !u.active) throw new HttpError(401, 'unauthenticated', 'Sign in again to go on.');
+    return u;
+  }
+
+  socket.on('count:join', async (payload, ack) => {
+    if (typeof ack !== 'function') return;
+    const parsed = countJoinSchema.safeParse(payload);
+    if (!parsed.success) return ack({ error: 'count:join needs { countId, sinceSeq }.', details: details(parsed.error.issues) });
+    try {
+      const u = await person();
+      const c = await counts.get(u.teamId, parsed.data.countId);
+      await socket.join(countRoom(c.id));
+      joined.add(c.id);
+      const events = await counts.eventsSince(u.teamId, c.id, parsed.data.sinceSeq);
+      ack({ data: { events, state: stateDto(c.state, Date.now()) } });
+      await counts.connect(c, socket.id, u.id);
+    } catch (error) {
+      answerError(ack, error, log);
+    }
+  });
+
+  socket.on('count:leave', async (payload) => {
+    const parsed = countLeaveSchema.safeParse(payload);
+    if (!parsed.success) return;
+    joined.delete(parsed.data.countId);
+    await socket.leave(countRoom(parsed.data.countId));
+    counts.disconnect(parsed.data.countId, socket.id);
+  });
+
+  socket.on('count:command', async (payload, ack) => {
+    if (typeof ack !== 'function') return;
+    const parsed = countCommandPayloadSchema.safeParse(payload);
+    if (!parsed.success) return ack({ error: 'That command is not valid.', details: details(parsed.error.issues) });
+    try {
+      const u = await person();
+      const events = await counts.command(u.teamId, parsed.data.countId, { id: u.id, teamId: u.teamId, name: u.name, roles: u.roles }, parsed.data.command as CountCommand & {
+        commandId?: string;
+      });
+      ack({ data: { events } });
+    } catch (error) {
+      answerError(ack, error, log);
+    }
+  });
+
+  socket.on('disconnect', () => {
+    for (const id of joined) counts.disconnect(id, socket.id);
+    joined.clear();
+  });
+}

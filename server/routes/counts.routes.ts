@@ -1,0 +1,242 @@
+import { z } from 'zod';
+import { idParamSchema } from '../../src/contract/hazards';
+import {
+  countCommandSchema,
+  countCreateInputSchema,
+  type CountDetailDto,
+  type CountEventDto,
+  type CountStateDto,
+  type CountSummaryDto,
+} from '../../src/contract/count';
+import type { CountCommand } from '../../src/domain/count/commands';
+import type { CountPlan, CrewStation, EventDraft } from '../../src/domain/count/events';
+import {
+  buildPlanSteps,
+  DEFAULT_POLL_TIMEOUT_SECONDS,
+  DEFAULT_RECYCLE_TO_SECONDS,
+  DEFAULT_TERMINAL_COUNT_SECONDS,
+  defaultStartT,
+  guessSafingPhaseKeys,
+  type PhaseWithCautions,
+} from '../../src/domain/count/plan';
+import { stateAt } from '../../src/domain/count/reduce';
+import { tAt, type CountState } from '../../src/domain/count/state';
+import type { ResolvedCaution } from '../../src/domain/procedures/cautions';
+import { neededStations } from '../../src/domain/procedures/manning';
+import { PROPELLANTS } from '../../src/domain/propellants/library';
+import type { CountService } from '../counts/service';
+import { badRequest, conflict, HttpError, notFound } from '../http/errors';
+import { route } from '../http/route';
+import { Count, CrewAssignment, CrewPlan, Procedure, ProcedureRevision, Station, User } from '../models';
+import { countableRevision } from '../procedures/countable';
+import { cautionContext, currentCautions, findProcedure, revisionsOf } from '../procedures/procedures';
+
+const stateQuerySchema = z.strictObject({
+  at: z
+    .string()
+    .regex(/^\d{1,15}$/, 'Give the instant as epoch milliseconds')
+    .transform(Number)
+    .optional(),
+});
+const eventsQuerySchema = z.strictObject({
+  sinceSeq: z
+    .string()
+    .regex(/^\d{1,9}$/, 'Give a sequence number')
+    .transform(Number)
+    .optional(),
+});
+
+/** The state with its clock read at `now`, so a client that never saw the anchor reads the same T. */
+export function stateDto(state: CountState, now: number): CountStateDto {
+  return { ...state, clock: { ...state.clock, tSeconds: tAt(state, now), anchorAt: state.clock.running ? now : state.clock.anchorAt } };
+}
+
+function summary(row: Count, state: CountState, procedureName: string, createdBy: { userId: number; name: string }): CountSummaryDto {
+  const plan = state.plan;
+  const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
+  return {
+    id: row.id,
+    name: row.name,
+    procedureId: row.procedureId as number,
+    procedureName,
+    revisionNumber: plan?.revisionNumber ?? 0,
+    status: state.status,
+    createdBy,
+    createdAt: row.createdAt.toISOString(),
+    startedAt: iso(state.startedAt),
+    t0At: iso(state.t0At),
+    closedAt: iso(state.closedAt),
+    windowEnd: iso(plan?.windowEnd ?? null),
+  };
+}
+
+async function crewFromPlan(teamId: number, procedureId: number): Promise<{ station: string; userIds: number[] }[]> {
+  // The newest crew plan for this procedure, else the newest for a test day.
+  const plans = await CrewPlan.findAll({
+    where: { teamId },
+    include: [{ model: CrewAssignment, as: 'assignments', include: [{ model: Station, as: 'station' }] }],
+    order: [['id', 'DESC']],
+  });
+  const plan = plans.find((p) => p.procedureId === procedureId) ?? plans.find((p) => p.procedureId === null);
+  if (!plan) return [];
+  const by = new Map<string, number[]>();
+  for (const a of plan.assignments ?? []) by.set(a.station!.code, [...(by.get(a.station!.code) ?? []), a.userId]);
+  return [...by].map(([station, userIds]) => ({ station, userIds }));
+}
+
+export function countRoutes({ counts }: { counts: CountService }) {
+  async function detail(teamId: number, row: Count): Promise<CountDetailDto> {
+    const live = await counts.get(teamId, row.id);
+    const [procedure, creator] = await Promise.all([
+      Procedure.findByPk(row.procedureId as number, { attributes: ['name'] }),
+      row.createdById ? User.findByPk(row.createdById as number, { attributes: ['id', 'name'] }) : null,
+    ]);
+    const now = Date.now();
+    return {
+      ...summary(row, live.state, procedure?.name ?? '', { userId: creator?.id ?? 0, name: creator?.name ?? '' }),
+      state: stateDto(live.state, now),
+    };
+  }
+
+  async function findCount(teamId: number, id: number): Promise<Count> {
+    const row = await Count.findOne({ where: { id, teamId } });
+    if (!row) throw notFound('There is no such count.');
+    return row;
+  }
+
+  return [
+    route({
+      method: 'get',
+      path: '/counts',
+      access: 'signed-in',
+      handler: async ({ user }): Promise<CountSummaryDto[]> => {
+        const rows = await Count.findAll({ where: { teamId: user!.teamId }, order: [['id', 'DESC']] });
+        const out: CountSummaryDto[] = [];
+        for (const row of rows) {
+          const d = await detail(user!.teamId, row);
+          const { state: _state, ...rest } = d;
+          out.push(rest);
+        }
+        return out;
+      },
+    }),
+    route({
+      method: 'post',
+      path: '/counts',
+      access: ['conductor', 'admin'],
+      status: 201,
+      body: countCreateInputSchema,
+      handler: async ({ body, user }): Promise<CountDetailDto> => {
+        const teamId = user!.teamId;
+        const p = await findProcedure(teamId, body.procedureId);
+        const rev = revisionsOf(p).find((r) => r.id === body.revisionId);
+        if (!rev) throw badRequest('That revision is not one of this procedure’s.', 'validation_failed', [{ path: 'revisionId', message: 'Not a revision of this procedure.' }]);
+        await countableRevision(teamId, p.id, rev.number);
+
+        const stations = await Station.findAll({ where: { teamId } });
+        const known = new Map(stations.map((s) => [s.code, s]));
+        const crewInput = body.crew ?? (await crewFromPlan(teamId, p.id));
+        const problems: { path: string; message: string }[] = [];
+        const people = await User.findAll({ where: { teamId, active: true }, attributes: ['id', 'name'] });
+        const nameOf = new Map(people.map((u) => [u.id, u.name]));
+        crewInput.forEach((c, i) => {
+          if (!known.has(c.station)) problems.push({ path: `crew.${i}.station`, message: `There is no station with the short code ${c.station}.` });
+          c.userIds.forEach((id, j) => {
+            if (!nameOf.has(id)) problems.push({ path: `crew.${i}.userIds.${j}`, message: 'Not an active member of your team.' });
+          });
+        });
+        if (problems.length) throw badRequest('Some of the crew cannot be put on this count.', 'validation_failed', problems);
+        const crew: CrewStation[] = crewInput.map((c) => ({ station: c.station, userIds: c.userIds, names: c.userIds.map((id) => nameOf.get(id)!) }));
+
+        const phaseKeys = rev.phases.map((ph) => ph.key);
+        const safing = body.safingPhaseKeys ?? guessSafingPhaseKeys(rev.phases);
+        safing.forEach((k, i) => {
+          if (!phaseKeys.includes(k)) problems.push({ path: `safingPhaseKeys.${i}`, message: `There is no phase ${k} in this revision.` });
+        });
+        if (problems.length) throw badRequest('Some phases are not in this revision.', 'validation_failed', problems);
+
+        // The cautions as signed at release, and each step's PPE: its station's default and its propellants'.
+        const signed: Record<string, ResolvedCaution[]> = rev.releasedCautions ?? currentCautions(rev.phases, await cautionContext(teamId));
+        const ctx = await cautionContext(teamId);
+        const phases: PhaseWithCautions[] = rev.phases.map((ph) => ({
+          ...ph,
+          steps: ph.steps.map((st) => ({
+            ...st,
+            cautions: signed[st.key] ?? [],
+            ppe: [...new Set([...(known.get(st.station)?.defaultPpe ?? []), ...st.propellants.flatMap((id) => ctx.propellants.get(id)?.ppe ?? PROPELLANTS[id]?.ppe.map((x) => (typeof x === 'string' ? x : x.text)) ?? [])])],
+          })),
+        }));
+        const steps = buildPlanSteps(phases);
+        const windowEnd = body.windowEnd ? Date.parse(body.windowEnd) : null;
+        const planBase: Omit<CountPlan, 'startTSeconds'> = {
+          name: body.name,
+          procedureId: p.id,
+          revisionId: rev.id,
+          revisionNumber: rev.number,
+          steps,
+          safingPhaseKeys: safing,
+          crew,
+          terminalCountSeconds: body.terminalCountSeconds ?? DEFAULT_TERMINAL_COUNT_SECONDS,
+          recycleToSeconds: body.recycleToSeconds ?? DEFAULT_RECYCLE_TO_SECONDS,
+          windowEnd,
+          pollTimeoutSeconds: body.pollTimeoutSeconds ?? DEFAULT_POLL_TIMEOUT_SECONDS,
+        };
+        const plan: CountPlan = { ...planBase, startTSeconds: defaultStartT({ ...planBase, startTSeconds: 0 }) };
+        const unmanned = neededStations(rev.phases, p.stations).filter((code) => !crew.some((c) => c.station === code));
+        void unmanned;
+
+        const row = await Count.create({ teamId, procedureId: p.id, revisionId: rev.id, name: body.name, windowEnd, createdById: user!.id });
+        const created: EventDraft = { type: 'count:created', payload: plan, actor: { userId: user!.id, name: user!.name }, station: null };
+        await counts.start(row.id, created);
+        return detail(teamId, row);
+      },
+    }),
+    route({
+      method: 'get',
+      path: '/counts/:id',
+      access: 'signed-in',
+      params: idParamSchema,
+      handler: async ({ params, user }) => detail(user!.teamId, await findCount(user!.teamId, params.id)),
+    }),
+    route({
+      method: 'get',
+      path: '/counts/:id/state',
+      access: 'signed-in',
+      params: idParamSchema,
+      query: stateQuerySchema,
+      handler: async ({ params, query, user }): Promise<CountStateDto> => {
+        const teamId = user!.teamId;
+        await findCount(teamId, params.id);
+        if (query.at === undefined) return stateDto((await counts.get(teamId, params.id)).state, Date.now());
+        const events = await counts.eventsSince(teamId, params.id, 0);
+        return stateDto(stateAt(events, query.at), query.at);
+      },
+    }),
+    route({
+      method: 'get',
+      path: '/counts/:id/events',
+      access: 'signed-in',
+      params: idParamSchema,
+      query: eventsQuerySchema,
+      handler: async ({ params, query, user }): Promise<CountEventDto[]> => {
+        await findCount(user!.teamId, params.id);
+        return counts.eventsSince(user!.teamId, params.id, query.sinceSeq ?? 0);
+      },
+    }),
+    route({
+      method: 'post',
+      path: '/counts/:id/commands',
+      access: 'signed-in',
+      params: idParamSchema,
+      body: countCommandSchema,
+      handler: async ({ params, body, user }): Promise<{ events: CountEventDto[] }> => {
+        const u = user!;
+        await findCount(u.teamId, params.id);
+        const events = await counts.command(u.teamId, params.id, { id: u.id, teamId: u.teamId, name: u.name, roles: u.roles }, body as CountCommand & { commandId?: string });
+        return { events };
+      },
+    }),
+  ];
+}
+
+export { conflict, HttpError, ProcedureRevision };
