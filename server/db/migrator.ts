@@ -5,6 +5,7 @@ import * as m0002 from './migrations/0002-hazards';
 import * as m0003 from './migrations/0003-uploads';
 import * as m0004 from './migrations/0004-risk-matrix-lifecycle';
 import * as m0005 from './migrations/0005-procedures';
+import * as m0007 from './migrations/0007-count-log';
 
 export interface MigrationContext {
   queryInterface: QueryInterface;
@@ -18,6 +19,7 @@ const MIGRATIONS = [
   { name: '0003-uploads', ...m0003 },
   { name: '0004-risk-matrix-lifecycle', ...m0004 },
   { name: '0005-procedures', ...m0005 },
+  { name: '0007-count-log', ...m0007 },
 ];
 
 export function createMigrator(sequelize: Sequelize) {
