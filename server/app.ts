@@ -10,6 +10,7 @@ import { Server } from 'socket.io';
 import { createPassport } from './auth/passport';
 import { createSessionEnder, sessionRoom, userRoom } from './auth/session-ender';
 import { DEFAULT_SIGN_IN_LIMITS, signInLimiters } from './auth/rate-limit';
+import { EventLog } from './counts/log';
 import type { AppDeps } from './deps';
 import { createErrorHandler, HttpError } from './http/errors';
 import { mountRoutes, type RouteDef } from './http/route';
@@ -43,6 +44,8 @@ export interface HoldfireApp {
   io: HoldfireServer;
   /** Every API route with its access rule: the table the security tests walk. */
   routes: RouteDef[];
+  /** The durable event log of live counts; one per app, so its group commit sees every append. */
+  countLog: EventLog;
   close(): Promise<void>;
 }
 
@@ -99,6 +102,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
 
   const sessions = createSessionEnder();
   const uploads = createUploadStore(config.dataDir, log);
+  const countLog = new EventLog({ sequelize: deps.sequelize });
   const routes: RouteDef[] = [
     ...healthRoutes,
     ...authRoutes({
@@ -168,6 +172,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
     httpServer,
     io,
     routes,
+    countLog,
     async close() {
       store.stopExpiringSessions();
       await new Promise<void>((resolve) => io.close(() => resolve()));
