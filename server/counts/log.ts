@@ -77,12 +77,16 @@ export class EventLog {
   private draining = false;
   /** Last seq and hash per count, so a commit need not read them back. Only committed values go here. */
   private readonly tails = new Map<number, Tail>();
-  /** Transactions committed by this log; read by tests and benchmarks. */
-  commits = 0;
+  private committed = 0;
 
   constructor(deps: EventLogDeps) {
     this.sequelize = deps.sequelize;
     this.now = deps.now ?? Date.now;
+  }
+
+  /** Transactions this log has committed; read by tests and benchmarks. */
+  get commits(): number {
+    return this.committed;
   }
 
   /**
@@ -202,7 +206,7 @@ export class EventLog {
       for (const pending of group) pending.reject(error);
       return;
     }
-    this.commits += 1;
+    this.committed += 1;
     for (const [countId, tail] of newTails) this.tails.set(countId, tail);
     for (const pending of group) {
       const outcome = outcomes.get(pending);
