@@ -5,13 +5,14 @@ const BUSY_TIMEOUT_MS = 5000;
 
 interface SqliteConnection {
   configure(option: 'busyTimeout', value: number): void;
+  run(sql: string, callback: (error: Error | null) => void): void;
   holdfireConfigured?: boolean;
 }
 
 /**
  * One Sequelize instance on SQLite: WAL so readers do not block the writer, foreign keys enforced (Sequelize
- * turns them on per connection), and a busy timeout on every connection, transactions' own included, so a
- * second writer waits instead of failing at once.
+ * turns them on per connection), and a busy timeout and synchronous=FULL on every connection, transactions' own
+ * included (Sequelize opens a new connection per transaction), so a second writer waits instead of failing at once.
  */
 export async function openDatabase(config: Pick<Config, 'sqliteStorage'>): Promise<Sequelize> {
   const sequelize = new Sequelize({
@@ -29,12 +30,17 @@ export async function openDatabase(config: Pick<Config, 'sqliteStorage'>): Promi
     const connection = await getConnection(options);
     if (!connection.holdfireConfigured) {
       connection.configure('busyTimeout', BUSY_TIMEOUT_MS);
+      // FULL syncs the WAL at every commit: with NORMAL a power cut can undo commits made since the last
+      // checkpoint, and the count log acknowledges an event only once its commit is on disk. The pragma is
+      // per connection, hence here and not once after opening.
+      await new Promise<void>((resolve, reject) =>
+        connection.run('PRAGMA synchronous = FULL;', (error) => (error ? reject(error) : resolve())),
+      );
       connection.holdfireConfigured = true;
     }
     return connection;
   };
   await sequelize.authenticate();
   if (config.sqliteStorage !== ':memory:') await sequelize.query('PRAGMA journal_mode = WAL;');
-  await sequelize.query('PRAGMA synchronous = NORMAL;');
   return sequelize;
 }

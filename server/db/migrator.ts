@@ -6,6 +6,7 @@ import * as m0003 from './migrations/0003-uploads';
 import * as m0004 from './migrations/0004-risk-matrix-lifecycle';
 import * as m0005 from './migrations/0005-procedures';
 import * as m0006 from './migrations/0006-procedure-attachments';
+import * as m0007 from './migrations/0007-count-log';
 
 export interface MigrationContext {
   queryInterface: QueryInterface;
@@ -20,6 +21,7 @@ const MIGRATIONS = [
   { name: '0004-risk-matrix-lifecycle', ...m0004 },
   { name: '0005-procedures', ...m0005 },
   { name: '0006-procedure-attachments', ...m0006 },
+  { name: '0007-count-log', ...m0007 },
 ];
 
 export function createMigrator(sequelize: Sequelize) {

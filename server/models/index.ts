@@ -1,4 +1,6 @@
 import type { Sequelize } from 'sequelize';
+import { CountEvent } from './count-event.model';
+import { Count } from './count.model';
 import { CrewAssignment } from './crew-assignment.model';
 import { CrewPlan } from './crew-plan.model';
 import { HazardAcceptance } from './hazard-acceptance.model';
@@ -45,6 +47,8 @@ const MODELS = {
   ProcedureAttachment,
   CrewPlan,
   CrewAssignment,
+  Count,
+  CountEvent,
 };
 
 /** Every model and association, in one place. */
@@ -99,10 +103,19 @@ export function initModels(sequelize: Sequelize) {
   CrewAssignment.belongsTo(Station, { as: 'station', foreignKey: 'stationId' });
   CrewAssignment.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 
+  Team.hasMany(Count, { foreignKey: 'teamId' });
+  Count.belongsTo(Procedure, { as: 'procedure', foreignKey: 'procedureId' });
+  Count.belongsTo(ProcedureRevision, { as: 'revision', foreignKey: 'revisionId' });
+  Count.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+  Count.hasMany(CountEvent, { as: 'events', foreignKey: 'countId' });
+  CountEvent.belongsTo(Count, { foreignKey: 'countId' });
+
   return MODELS;
 }
 
 export {
+  Count,
+  CountEvent,
   CrewAssignment,
   CrewPlan,
   Hazard,

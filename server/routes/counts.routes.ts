@@ -181,7 +181,7 @@ export function countRoutes({ counts }: { counts: CountService }) {
           windowEnd,
           pollTimeoutSeconds: body.pollTimeoutSeconds ?? DEFAULT_POLL_TIMEOUT_SECONDS,
         };
-        const plan: CountPlan = { ...planBase, startTSeconds: defaultStartT({ ...planBase, startTSeconds: 0 }) };
+        const plan: CountPlan = { ...planBase, startTSeconds: defaultStartT(steps, safing) };
         const unmanned = neededStations(rev.phases, p.stations).filter((code) => !crew.some((c) => c.station === code));
         void unmanned;
 

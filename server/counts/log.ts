@@ -1,0 +1,329 @@
+import { createHash } from 'node:crypto';
+import { Op, type Sequelize, type Transaction } from 'sequelize';
+import {
+  canonicalJson,
+  eventHash,
+  GENESIS_HASH,
+  verifyChain,
+  type ChainedEvent,
+  type ChainVerdict,
+  type EventActor,
+} from '../../src/domain/count/chain';
+import { Count } from '../models/count.model';
+import { CountEvent } from '../models/count-event.model';
+
+/** SHA-256 as lowercase hex of the UTF-8 text, for chain.ts. */
+export function sha256Hex(text: string): Promise<string> {
+  return Promise.resolve(createHash('sha256').update(text, 'utf8').digest('hex'));
+}
+
+export interface EventDraft {
+  type: string;
+  payload: unknown;
+  actor: EventActor | null;
+  station: string | null;
+  /** The client's id for the command this event answers; a retry with the same id writes nothing again. */
+  commandId?: string | null;
+  /** Epoch milliseconds; the server's time when left out. */
+  at?: number;
+}
+
+export interface StoredEvent extends ChainedEvent {
+  commandId: string | null;
+}
+
+export class EventLogError extends Error {
+  constructor(
+    readonly code: 'count_not_found' | 'invalid_draft',
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
+interface Pending {
+  countId: number;
+  drafts: EventDraft[];
+  commandId: string | null;
+  resolve(events: StoredEvent[]): void;
+  reject(error: unknown): void;
+}
+
+interface Tail {
+  seq: number;
+  hash: string;
+}
+
+const LIMITS = { type: 60, actorName: 120, station: 40, commandId: 100 };
+// One INSERT per chunk keeps a very large group within SQLite's statement size without a commit per event.
+const INSERT_CHUNK = 200;
+
+export interface EventLogDeps {
+  sequelize: Sequelize;
+  /** Server time in epoch milliseconds; tests pass a fixed clock. */
+  now?: () => number;
+}
+
+/**
+ * The durable, hash-chained event log of live counts. append() resolves only after the events' transaction has
+ * committed, so a caller acknowledges or broadcasts nothing that could still be lost. Appends that arrive
+ * while a commit runs wait and go together into the next transaction (group commit): one durable commit per
+ * group instead of one per event. One EventLog per process owns the writes of its counts.
+ */
+export class EventLog {
+  private readonly sequelize: Sequelize;
+  private readonly now: () => number;
+  private queue: Pending[] = [];
+  private draining = false;
+  /** Last seq and hash per count, so a commit need not read them back. Only committed values go here. */
+  private readonly tails = new Map<number, Tail>();
+  private committed = 0;
+
+  constructor(deps: EventLogDeps) {
+    this.sequelize = deps.sequelize;
+    this.now = deps.now ?? Date.now;
+  }
+
+  /** Transactions this log has committed; read by tests and benchmarks. */
+  get commits(): number {
+    return this.committed;
+  }
+
+  /**
+   * Appends the drafts to the count's log, in order, and resolves with them as stored once committed.
+   * Appends to one count are stored in the order append() was called.
+   *
+   * Idempotency: every draft of one call carries the same commandId, or none does. If that commandId is already
+   * stored for the count (or an earlier append in the same group carries it), nothing is written and the
+   * events stored for that command are returned, whatever the new drafts say.
+   */
+  append(countId: number, drafts: EventDraft[]): Promise<StoredEvent[]> {
+    let checked: ReturnType<typeof checkDrafts>;
+    try {
+      checked = checkDrafts(countId, drafts);
+    } catch (error) {
+      return Promise.reject(error);
+    }
+    if (drafts.length === 0) return Promise.resolve([]);
+    return new Promise<StoredEvent[]>((resolve, reject) => {
+      this.queue.push({ countId, ...checked, resolve, reject });
+      if (!this.draining) {
+        this.draining = true;
+        // Start on a later turn so appends made in the same turn share the first transaction too.
+        setImmediate(() => void this.drain());
+      }
+    });
+  }
+
+  /** The count's events in seq order, after `sinceSeq` when given. */
+  async read(countId: number, options: { sinceSeq?: number } = {}): Promise<StoredEvent[]> {
+    const rows = await CountEvent.findAll({
+      where: { countId, ...(options.sinceSeq !== undefined ? { seq: { [Op.gt]: options.sinceSeq } } : {}) },
+      order: [['seq', 'ASC']],
+    });
+    return rows.map(toStored);
+  }
+
+  /**
+   * Recomputes the count's whole chain from the database (see verifyChain in chain.ts). A payload that is no
+   * longer JSON cannot match its hash and is reported as a hash mismatch at its seq.
+   */
+  async verify(countId: number): Promise<ChainVerdict> {
+    const rows = await CountEvent.findAll({ where: { countId }, order: [['seq', 'ASC']] });
+    const events: StoredEvent[] = [];
+    for (const row of rows) {
+      try {
+        events.push(toStored(row));
+      } catch {
+        const before = await verifyChain(events, sha256Hex);
+        if (!before.ok) return before;
+        return { ok: false, seq: row.seq, reason: 'hash-mismatch', detail: 'the stored payload is not JSON' };
+      }
+    }
+    return verifyChain(events, sha256Hex);
+  }
+
+  private async drain(): Promise<void> {
+    while (this.queue.length > 0) {
+      const group = this.queue;
+      this.queue = [];
+      await this.commitGroup(group);
+    }
+    this.draining = false;
+  }
+
+  private async commitGroup(group: Pending[]): Promise<void> {
+    const countIds = [...new Set(group.map((p) => p.countId))];
+    const newTails = new Map<number, Tail>();
+    const outcomes = new Map<Pending, StoredEvent[] | EventLogError>();
+    try {
+      await this.sequelize.transaction(async (transaction) => {
+        const known = await this.loadTails(countIds, transaction);
+        const earlier = await this.storedCommands(group, transaction);
+        const rows: StoredEvent[] = [];
+        for (const pending of group) {
+          const tail = newTails.get(pending.countId) ?? known.get(pending.countId);
+          if (!tail) {
+            outcomes.set(pending, new EventLogError('count_not_found', `There is no count ${pending.countId}.`));
+            continue;
+          }
+          const key = pending.commandId === null ? null : commandKey(pending.countId, pending.commandId);
+          const already = key === null ? undefined : earlier.get(key);
+          if (already) {
+            outcomes.set(pending, already);
+            continue;
+          }
+          const stored: StoredEvent[] = [];
+          let { seq, hash } = tail;
+          const at = this.now();
+          for (const draft of pending.drafts) {
+            const content = {
+              countId: pending.countId,
+              seq: seq + 1,
+              type: draft.type,
+              at: draft.at ?? at,
+              actor: draft.actor,
+              station: draft.station,
+              payload: draft.payload,
+            };
+            const event: StoredEvent = { ...content, commandId: pending.commandId, prevHash: hash, hash: await eventHash(hash, content, sha256Hex) };
+            stored.push(event);
+            seq = event.seq;
+            hash = event.hash;
+          }
+          newTails.set(pending.countId, { seq, hash });
+          if (key !== null) earlier.set(key, stored);
+          outcomes.set(pending, stored);
+          rows.push(...stored);
+        }
+        for (let i = 0; i < rows.length; i += INSERT_CHUNK) {
+          await CountEvent.bulkCreate(rows.slice(i, i + INSERT_CHUNK).map(toRow), { transaction, validate: false });
+        }
+      });
+    } catch (error) {
+      // Nothing of the group is stored; forget the tails so the next commit reads them from the database.
+      for (const countId of countIds) this.tails.delete(countId);
+      for (const pending of group) pending.reject(error);
+      return;
+    }
+    this.committed += 1;
+    for (const [countId, tail] of newTails) this.tails.set(countId, tail);
+    for (const pending of group) {
+      const outcome = outcomes.get(pending);
+      if (outcome instanceof Error || outcome === undefined) pending.reject(outcome ?? new Error('append lost its outcome'));
+      else pending.resolve(outcome);
+    }
+  }
+
+  /** Committed tails, read from the database (inside the write transaction) for counts not yet cached. */
+  private async loadTails(countIds: number[], transaction: Transaction): Promise<Map<number, Tail>> {
+    const tails = new Map<number, Tail>();
+    const missing: number[] = [];
+    for (const id of countIds) {
+      const cached = this.tails.get(id);
+      if (cached) tails.set(id, cached);
+      else missing.push(id);
+    }
+    if (missing.length === 0) return tails;
+    const counts = await Count.findAll({ where: { id: missing }, attributes: ['id'], transaction });
+    for (const { id } of counts) {
+      const last = await CountEvent.findOne({ where: { countId: id }, order: [['seq', 'DESC']], attributes: ['seq', 'hash'], transaction });
+      tails.set(id, last ? { seq: last.seq, hash: last.hash } : { seq: 0, hash: GENESIS_HASH });
+    }
+    return tails;
+  }
+
+  /** Events already stored for the group's command ids, by count and command. */
+  private async storedCommands(group: Pending[], transaction: Transaction): Promise<Map<string, StoredEvent[]>> {
+    const found = new Map<string, StoredEvent[]>();
+    const byCount = new Map<number, Set<string>>();
+    for (const p of group) {
+      if (p.commandId === null) continue;
+      const ids = byCount.get(p.countId) ?? new Set<string>();
+      ids.add(p.commandId);
+      byCount.set(p.countId, ids);
+    }
+    for (const [countId, ids] of byCount) {
+      const rows = await CountEvent.findAll({ where: { countId, commandId: [...ids] }, order: [['seq', 'ASC']], transaction });
+      for (const row of rows) {
+        const key = commandKey(countId, row.commandId!);
+        found.set(key, [...(found.get(key) ?? []), toStored(row)]);
+      }
+    }
+    return found;
+  }
+}
+
+function commandKey(countId: number, commandId: string): string {
+  return `${countId}:${commandId}`;
+}
+
+/**
+ * Refuses malformed drafts before they can fail a whole group's transaction. Returns the call's commandId and
+ * a copy of the drafts whose payload is already as it will read back (canonical JSON parsed again), so the
+ * caller changing its objects after append() changes nothing.
+ */
+function checkDrafts(countId: number, drafts: EventDraft[]): { commandId: string | null; drafts: EventDraft[] } {
+  const bad = (message: string) => new EventLogError('invalid_draft', message);
+  if (!Number.isInteger(countId) || countId < 1) throw bad('countId must be a positive integer.');
+  if (!Array.isArray(drafts)) throw bad('drafts must be an array.');
+  const commandIds = new Set(drafts.map((d) => d.commandId ?? null));
+  if (commandIds.size > 1) throw bad('All drafts of one append carry the same commandId, or none does.');
+  const commandId = drafts[0]?.commandId ?? null;
+  if (commandId !== null && (typeof commandId !== 'string' || commandId.length === 0 || commandId.length > LIMITS.commandId)) {
+    throw bad(`commandId must be 1 to ${LIMITS.commandId} characters.`);
+  }
+  for (const d of drafts) {
+    if (typeof d.type !== 'string' || d.type.length === 0 || d.type.length > LIMITS.type) throw bad(`type must be 1 to ${LIMITS.type} characters.`);
+    if (d.station !== null && (typeof d.station !== 'string' || d.station.length > LIMITS.station)) throw bad(`station must be null or at most ${LIMITS.station} characters.`);
+    if (d.actor !== null) {
+      if (typeof d.actor !== 'object' || typeof d.actor.name !== 'string' || d.actor.name.length > LIMITS.actorName) throw bad('actor must be null or { userId, name }.');
+      if (d.actor.userId !== null && !Number.isInteger(d.actor.userId)) throw bad('actor.userId must be an integer or null.');
+    }
+    if (d.at !== undefined && !Number.isSafeInteger(d.at)) throw bad('at must be an integer number of epoch milliseconds.');
+    if (d.payload === undefined) throw bad('payload is required (use null or {} for none).');
+  }
+  const copies = drafts.map((d) => {
+    let payload: unknown;
+    try {
+      payload = JSON.parse(canonicalJson(d.payload)) as unknown;
+    } catch (error) {
+      throw bad(`payload: ${(error as Error).message}`);
+    }
+    const actor = d.actor === null ? null : { userId: d.actor.userId, name: d.actor.name };
+    return { type: d.type, payload, actor, station: d.station, commandId, ...(d.at !== undefined ? { at: d.at } : {}) };
+  });
+  return { commandId, drafts: copies };
+}
+
+function toRow(e: StoredEvent) {
+  return {
+    countId: e.countId,
+    seq: e.seq,
+    type: e.type,
+    payload: e.payload,
+    actorUserId: e.actor?.userId ?? null,
+    actorName: e.actor?.name ?? null,
+    station: e.station,
+    at: e.at,
+    commandId: e.commandId,
+    prevHash: e.prevHash,
+    hash: e.hash,
+  };
+}
+
+function toStored(row: CountEvent): StoredEvent {
+  return {
+    countId: row.countId,
+    seq: row.seq,
+    type: row.type,
+    at: row.at,
+    // The actor is stored in two columns; a name means there was an actor.
+    actor: row.actorName === null ? null : { userId: row.actorUserId, name: row.actorName },
+    station: row.station,
+    payload: row.payload,
+    commandId: row.commandId,
+    prevHash: row.prevHash,
+    hash: row.hash,
+  };
+}
