@@ -71,13 +71,13 @@ function summary(row: Count, state: CountState, procedureName: string, createdBy
 }
 
 async function crewFromPlan(teamId: number, procedureId: number): Promise<{ station: string; userIds: number[] }[]> {
-  // The newest crew plan for this procedure, else the newest for a test day.
+  // The newest crew plan for this procedure, else the newest for a test day, else the team's newest.
   const plans = await CrewPlan.findAll({
     where: { teamId },
     include: [{ model: CrewAssignment, as: 'assignments', include: [{ model: Station, as: 'station' }] }],
     order: [['id', 'DESC']],
   });
-  const plan = plans.find((p) => p.procedureId === procedureId) ?? plans.find((p) => p.procedureId === null);
+  const plan = plans.find((p) => p.procedureId === procedureId) ?? plans.find((p) => p.procedureId === null) ?? plans[0];
   if (!plan) return [];
   const by = new Map<string, number[]>();
   for (const a of plan.assignments ?? []) by.set(a.station!.code, [...(by.get(a.station!.code) ?? []), a.userId]);

@@ -1,0 +1,173 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO } from '../helpers/api';
+import { startTestApp, waitForMail, type TestApp, type TestClient } from '../helpers/app';
+import { demoRevision, releasedShortProcedure } from '../helpers/counts';
+
+let t: TestApp;
+let conductor: TestClient;
+let safety: TestClient;
+let prop: TestClient;
+let pad: TestClient;
+let auditor: TestClient;
+let admin: TestClient;
+
+beforeAll(async () => {
+  t = await startTestApp();
+  [conductor, safety, prop, pad, auditor, admin] = await Promise.all(
+    [DEMO.conductor, DEMO.safety, DEMO.propellants, DEMO.pad, DEMO.auditor, DEMO.admin].map((e) => t.client(e)),
+  );
+});
+afterAll(() => t.stop());
+
+async function until(check: () => Promise<boolean>, timeoutMs = 10_000) {
+  const end = Date.now() + timeoutMs;
+  while (!(await check())) {
+    if (Date.now() > end) throw new Error('condition not met in time');
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}
+
+const command = (c: TestClient, id: number, body: object) => c.post(`/api/counts/${id}/commands`, body);
+
+async function newDemoCount(name = 'Kestrel-2 static fire, run 1') {
+  const rev = await demoRevision(conductor);
+  const res = await conductor.post('/api/counts', { ...rev, name }).expect(201);
+  return res.body.id as number;
+}
+
+describe('creating a count', () => {
+  it('counts a released revision and mans the stations from the demo crew plan', async () => {
+    const rev = await demoRevision(conductor);
+    const res = await conductor.post('/api/counts', { ...rev, name: 'Run 1', windowEnd: '2031-05-17T16:00:00Z' }).expect(201);
+    expect(res.body).toMatchObject({ name: 'Run 1', procedureId: 1, revisionNumber: 1, status: 'ready', windowEnd: '2031-05-17T16:00:00.000Z' });
+    const crew = res.body.state.plan.crew as { station: string; names: string[] }[];
+    expect(crew.find((c) => c.station === 'PROP')?.names).toEqual(['Tomasz Reyes']);
+    expect(crew.map((c) => c.station).sort()).toEqual(['DATA', 'FIRE', 'PAD', 'PROP', 'RANGE', 'SAFE', 'TC']);
+    // The plan froze the steps with their cautions as signed and each step's PPE.
+    const steps = res.body.state.plan.steps as { key: string; cautions: unknown[]; ppe: string[] }[];
+    expect(steps.length).toBeGreaterThan(50);
+    expect(steps.some((s) => s.cautions.length > 0)).toBe(true);
+    const list = await conductor.get('/api/counts').expect(200);
+    expect(list.body.map((c: { id: number }) => c.id)).toContain(res.body.id);
+  });
+
+  it('refuses a draft revision: a draft cannot be counted (409) and nothing is created', async () => {
+    const before = (await conductor.get('/api/counts').expect(200)).body.length;
+    const proc = await conductor.get('/api/procedures/1').expect(200);
+    const draft = proc.body.revisions.find((r: { status: string }) => r.status === 'draft');
+    const res = await conductor.post('/api/counts', { procedureId: 1, revisionId: draft.id, name: 'From a draft' }).expect(409);
+    expect(res.body.code).toBe('not_countable');
+    expect((await conductor.get('/api/counts').expect(200)).body.length).toBe(before);
+  });
+
+  it('answers bad input with 400 at the field, and an operator or auditor with 403', async () => {
+    const rev = await demoRevision(conductor);
+    const bad = await conductor.post('/api/counts', { ...rev, name: '', windowEnd: 'tomorrow' }).expect(400);
+    expect(bad.body.details.map((d: { path: string }) => d.path).sort()).toEqual(['name', 'windowEnd']);
+    const crew = await conductor.post('/api/counts', { ...rev, name: 'x', crew: [{ station: 'NOPE', userIds: [1] }] }).expect(400);
+    expect(crew.body.details[0].path).toBe('crew.0.station');
+    await prop.post('/api/counts', { ...rev, name: 'x' }).expect(403);
+    await auditor.post('/api/counts', { ...rev, name: 'x' }).expect(403);
+    await conductor.get('/api/counts/999999').expect(404);
+  });
+});
+
+describe('commands over HTTP (the same path as the socket)', () => {
+  it('start, hold by a station, resume refused before the clear, clear by that station, resume', async () => {
+    const id = await newDemoCount();
+    await command(conductor, id, { type: 'count:start' }).expect(200);
+    let state = (await conductor.get(`/api/counts/${id}/state`).expect(200)).body;
+    expect(state.status).toBe('counting');
+    expect(state.clock).toMatchObject({ tSeconds: expect.closeTo(-7200, 0), running: true });
+
+    const held = await command(prop, id, { type: 'hold:call', category: 'propellant', reason: 'LOX dewar vent line frosting at the joint' }).expect(200);
+    const holdId = held.body.events[0].payload.holdId;
+    state = (await auditor.get(`/api/counts/${id}/state`).expect(200)).body;
+    expect(state.status).toBe('holding');
+    expect(state.clock.running).toBe(false);
+    expect(state.hold).toMatchObject({ category: 'propellant', reason: 'LOX dewar vent line frosting at the joint', calledByStation: 'PROP' });
+
+    const early = await command(conductor, id, { type: 'count:resume' }).expect(409);
+    expect(early.body.error).toMatch(/Clear every hold first/);
+    // Another station cannot clear PROP's hold.
+    await command(pad, id, { type: 'hold:clear', holdId }).expect(403);
+    await command(prop, id, { type: 'hold:clear', holdId }).expect(200);
+    await command(conductor, id, { type: 'count:resume' }).expect(200);
+    state = (await conductor.get(`/api/counts/${id}/state`).expect(200)).body;
+    expect(state.status).toBe('counting');
+
+    const events = (await auditor.get(`/api/counts/${id}/events`).expect(200)).body as { seq: number; type: string; hash: string; prevHash: string }[];
+    expect(events.map((e) => e.type)).toEqual(expect.arrayContaining(['count:created', 'count:started', 'hold:called', 'hold:cleared', 'count:resumed']));
+    expect(events.map((e) => e.seq)).toEqual(events.map((_, i) => i + 1));
+    events.slice(1).forEach((e, i) => expect(e.prevHash).toBe(events[i]!.hash));
+    expect(await t.holdfire.eventLog.verify(id)).toEqual({ ok: true, count: events.length });
+  });
+
+  it('an auditor watches only: a hold or a start is refused (403) and nothing is logged', async () => {
+    const id = await newDemoCount();
+    const before = (await auditor.get(`/api/counts/${id}/events`).expect(200)).body.length;
+    const res = await command(auditor, id, { type: 'hold:call', category: 'other', reason: 'I saw something' }).expect(403);
+    expect(res.body.error).toMatch(/Only the crew can call a hold/);
+    await command(auditor, id, { type: 'count:start' }).expect(403);
+    await command(prop, id, { type: 'count:start' }).expect(403);
+    expect((await auditor.get(`/api/counts/${id}/events`).expect(200)).body.length).toBe(before);
+  });
+
+  it('bad commands are 400 at the field; a retried commandId acts once', async () => {
+    const id = await newDemoCount();
+    await command(conductor, id, { type: 'count:start' }).expect(200);
+    const bad = await command(prop, id, { type: 'hold:call', category: 'lunch', reason: '' }).expect(400);
+    expect(bad.body.details.map((d: { path: string }) => d.path).sort()).toEqual(['category', 'reason']);
+    await command(prop, id, { type: 'warp:engage' }).expect(400);
+
+    const body = { type: 'hold:call', category: 'weather', reason: 'Gusts over the limit', commandId: 'prop-1-7f3a' };
+    const first = await command(prop, id, body).expect(200);
+    const second = await command(prop, id, body).expect(200);
+    expect(second.body.events).toEqual(first.body.events);
+    const holds = (await auditor.get(`/api/counts/${id}/events`).expect(200)).body.filter((e: { type: string }) => e.type === 'hold:called');
+    expect(holds).toHaveLength(1);
+  });
+
+  it('an operator answers only for the station they man', async () => {
+    const id = await newDemoCount();
+    await command(conductor, id, { type: 'count:start' }).expect(200);
+    const opened = await command(conductor, id, { type: 'poll:open', stations: ['PROP', 'PAD'], timeoutSeconds: 600 }).expect(200);
+    const pollId = opened.body.events[0].payload.pollId;
+    const res = await command(prop, id, { type: 'poll:answer', pollId, station: 'PAD', answer: 'go' }).expect(403);
+    expect(res.body.error).toMatch(/belongs to PAD/);
+    const nogo = await command(prop, id, { type: 'poll:answer', pollId, station: 'PROP', answer: 'nogo' }).expect(400);
+    expect(nogo.body.error).toMatch(/Say why PROP is no-go/);
+  });
+
+  it('a redline reading holds the count with the value, unit and limit', async () => {
+    const { procedureId, revisionId } = await releasedShortProcedure(conductor, safety);
+    const res = await conductor.post('/api/counts', { procedureId, revisionId, name: 'Short run' }).expect(201);
+    const id = res.body.id;
+    await command(conductor, id, { type: 'count:start' }).expect(200);
+    const reading = res.body.state.plan.steps.find((s: { kind: string }) => s.kind === 'reading');
+    // Reached at T-14 s, a second after the start at T-15 s: before then there is nothing to record.
+    const early = await command(prop, id, { type: 'reading:record', stepKey: reading.key, value: 12 });
+    if (early.status !== 200) expect(early.body.error).toMatch(/"LOX tank pressure" has not been reached yet: it comes at T-0:14/);
+    await until(async () => (await conductor.get(`/api/counts/${id}/state`)).body.steps[reading.key]?.status === 'current');
+    const res2 = await command(prop, id, { type: 'reading:record', stepKey: reading.key, value: 14.6 }).expect(200);
+    expect(res2.body.events.map((e: { type: string }) => e.type)).toEqual(['reading:recorded', 'hold:called']);
+    const state = (await conductor.get(`/api/counts/${id}/state`).expect(200)).body;
+    expect(state.status).toBe('holding');
+    expect(state.hold).toMatchObject({ source: 'redline', reason: 'redline: LOX tank pressure: 14.6 bar above 14' });
+  });
+});
+
+describe('scrub', () => {
+  it('the safety officer scrubs; the count moves to safing and the crew gets a scrub notice by e-mail', async () => {
+    const id = await newDemoCount('Run for scrubbing');
+    await command(conductor, id, { type: 'count:start' }).expect(200);
+    const res = await command(safety, id, { type: 'count:scrub', category: 'weather', reason: 'Thunderstorm cell 15 km west, moving this way' }).expect(200);
+    expect(res.body.events.map((e: { type: string }) => e.type)).toContain('count:scrubbed');
+    const state = (await conductor.get(`/api/counts/${id}/state`).expect(200)).body;
+    expect(state.status).toBe('safing');
+    const mail = await waitForMail(admin, 'propellants@ternvalley.test');
+    expect(mail.subject).toBe('Scrubbed: Run for scrubbing');
+    expect(mail.text).toContain('Thunderstorm cell 15 km west');
+    expect(mail.text).toContain('Category: Weather');
+  });
+});
