@@ -1,0 +1,121 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import request from 'supertest';
+import { afterAll, describe, expect, it } from 'vitest';
+import { DEMO, sessionCookie } from '../helpers/api';
+
+/**
+ * The whole server is killed with SIGKILL in the middle of a count and started again on the same database: every
+ * acknowledged event is still there, the chain verifies, and the count that was counting is holding with the
+ * reason "control server restarted". It never resumes by itself.
+ */
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = createServer();
+    s.once('error', reject);
+    s.listen(0, '127.0.0.1', () => {
+      const port = (s.address() as { port: number }).port;
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+function startServer(dir: string, port: number): { child: ChildProcess; ready: Promise<void> } {
+  const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'server/index.ts')], {
+    cwd: root,
+    env: {
+      ...process.env,
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      HOLDFIRE_DATA_DIR: dir,
+      DATABASE_URL: `sqlite:${path.join(dir, 'holdfire.sqlite')}`,
+      HOLDFIRE_SEED: 'demo',
+      NODE_ENV: 'test',
+      APP_URL: `http://127.0.0.1:${port}`,
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  let out = '';
+  const ready = new Promise<void>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`server did not start: ${out}`)), 60_000);
+    const seen = (chunk: Buffer) => {
+      out += chunk.toString();
+      if (out.includes('Holdfire is serving')) {
+        clearTimeout(timer);
+        resolve();
+      }
+    };
+    child.stdout!.on('data', seen);
+    child.stderr!.on('data', seen);
+    child.once('exit', (code) => reject(new Error(`server exited (${code}): ${out}`)));
+  });
+  return { child, ready };
+}
+
+async function signIn(base: string, email: string) {
+  const agent = request.agent(base);
+  let csrf = (await agent.get('/api/auth/csrf').expect(200)).body.csrfToken;
+  const res = await agent.post('/api/auth/login').set('X-CSRF-Token', csrf).send({ email, password: 'kestrel-demo' }).expect(200);
+  expect(sessionCookie(res)).toBeTruthy();
+  csrf = (await agent.get('/api/auth/csrf').expect(200)).body.csrfToken;
+  return { agent, post: (url: string, body: object) => agent.post(url).set('X-CSRF-Token', csrf).send(body), get: (url: string) => agent.get(url) };
+}
+
+describe('the server killed mid-count', () => {
+  const dir = mkdtempSync(path.join(tmpdir(), 'holdfire-count-kill-'));
+  const children: ChildProcess[] = [];
+  afterAll(() => {
+    for (const c of children) c.kill('SIGKILL');
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('restarts on the same database with every acknowledged event, holding', { timeout: 120_000 }, async () => {
+    const port = await freePort();
+    const base = `http://127.0.0.1:${port}`;
+    const first = startServer(dir, port);
+    children.push(first.child);
+    await first.ready;
+
+    const conductor = await signIn(base, DEMO.conductor);
+    const prop = await signIn(base, DEMO.propellants);
+    const proc = await conductor.get('/api/procedures/1').expect(200);
+    const revisionId = proc.body.revisions.find((r: { status: string }) => r.status === 'released').id;
+    const id = (await conductor.post('/api/counts', { procedureId: 1, revisionId, name: 'Run cut short' }).expect(201)).body.id;
+    const acked: { seq: number; hash: string }[] = [];
+    const keep = (res: { body: { events: { seq: number; hash: string }[] } }) => acked.push(...res.body.events.map((e) => ({ seq: e.seq, hash: e.hash })));
+    keep(await conductor.post(`/api/counts/${id}/commands`, { type: 'count:start' }).expect(200));
+    // Each of these is acknowledged before the next is sent; every acknowledged event must survive the kill.
+    const hold = await prop.post(`/api/counts/${id}/commands`, { type: 'hold:call', category: 'hardware', reason: 'Check valve chatter' }).expect(200);
+    keep(hold);
+    keep(await prop.post(`/api/counts/${id}/commands`, { type: 'hold:clear', holdId: hold.body.events[0].payload.holdId }).expect(200));
+    keep(await conductor.post(`/api/counts/${id}/commands`, { type: 'count:resume' }).expect(200));
+    const opened = await conductor.post(`/api/counts/${id}/commands`, { type: 'poll:open', stations: ['PROP', 'PAD'], timeoutSeconds: 600 }).expect(200);
+    keep(opened);
+    keep(await prop.post(`/api/counts/${id}/commands`, { type: 'poll:answer', pollId: opened.body.events[0].payload.pollId, station: 'PROP', answer: 'go' }).expect(200));
+    expect((await conductor.get(`/api/counts/${id}/state`).expect(200)).body.status).toBe('counting');
+
+    first.child.kill('SIGKILL');
+    await new Promise((resolve) => first.child.once('exit', resolve));
+
+    const second = startServer(dir, port);
+    children.push(second.child);
+    await second.ready;
+    const auditor = await signIn(base, DEMO.auditor);
+    const events = (await auditor.get(`/api/counts/${id}/events`).expect(200)).body as { seq: number; hash: string; prevHash: string; type: string; payload: { reason?: string } }[];
+    for (const a of acked) expect(events.find((e) => e.seq === a.seq)?.hash).toBe(a.hash);
+    events.slice(1).forEach((e, i) => expect(e.prevHash).toBe(events[i]!.hash));
+
+    const state = (await auditor.get(`/api/counts/${id}/state`).expect(200)).body;
+    expect(state.status).toBe('holding');
+    expect(state.clock.running).toBe(false);
+    expect(state.hold).toMatchObject({ source: 'restart', reason: 'control server restarted' });
+    second.child.kill('SIGTERM');
+    await new Promise((resolve) => second.child.once('exit', resolve));
+  });
+});
