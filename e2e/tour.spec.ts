@@ -68,6 +68,14 @@ for (const p of pages) {
           const scan = !p.long || (theme === 'daylight') === (vp.name === 'desktop');
           if (scan) await expectAccessible(page, `${p.name} ${theme} ${vp.name}`);
           await page.screenshot({ path: `e2e/screenshots/${p.name}-${vp.name}-${theme}.png`, fullPage: !p.long });
+          if (p.long) {
+            // And one screen further down, where the steps are, to look at them too.
+            const step = page.locator('[data-step-key]').nth(3);
+            if (await step.count()) {
+              await step.scrollIntoViewIfNeeded();
+              await page.screenshot({ path: `e2e/screenshots/${p.name}-${vp.name}-${theme}-steps.png` });
+            }
+          }
         }
       }
     });
