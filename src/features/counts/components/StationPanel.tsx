@@ -117,6 +117,10 @@ export function StationPanel({ live, me, station, manned }: { live: LiveCount; m
             </form>
           )}
         </section>
+      ) : poll && !poll.stations.includes(station) ? (
+        <p className="text-ink-muted">
+          Poll {poll.pollId} is open for {poll.stations.join(', ')}: {station} is not asked.
+        </p>
       ) : mineAnswer ? (
         <p className="text-lg font-bold">
           You answered {mineAnswer.answer === 'go' ? 'GO' : `NO-GO (${mineAnswer.reason})`} to poll {poll?.pollId}.
