@@ -13,12 +13,15 @@ import { STEP_KIND_LABELS } from '../../../domain/procedures/steps';
 import type { Connection, LogEntry, QueuedCommand } from '../hooks/useLiveCount';
 import { clockTime, eventWords, formatCountClock, STATUS_LOOK } from '../lib/format';
 
-/** Said once per screen, quietly: who governs the test. */
+/**
+ * Said once per screen, quietly: who governs the test. The footer of every page already says Holdfire is a
+ * planning and record aid, not a safety authority; this adds what governs during a count.
+ */
 export function SafetyNote() {
   return (
     <p className="mt-6 border-t-2 border-line-soft pt-3 text-sm text-ink-muted">
-      Holdfire is a planning and record aid, not a safety authority. The range safety officer’s and the test conductor’s calls on
-      the radio govern.
+      During a count the range safety officer’s and the test conductor’s calls on the radio govern; this screen shows and records
+      the count, it does not make it safe.
     </p>
   );
 }
