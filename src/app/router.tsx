@@ -1,10 +1,11 @@
+import { lazy, Suspense, type ReactNode } from 'react';
 import { createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { Loading } from '../components/ui/Page';
 import { AcceptInvitationPage } from '../features/auth/components/AcceptInvitationPage';
 import { CompletePasswordResetPage } from '../features/auth/components/CompletePasswordResetPage';
 import { RequestPasswordResetPage } from '../features/auth/components/RequestPasswordResetPage';
 import { SetupPage } from '../features/auth/components/SetupPage';
 import { SignInPage } from '../features/auth/components/SignInPage';
-import { LiveCountPage } from '../features/counts/components/LiveCountPage';
 import { EngineeringChecksPage } from '../features/hazards/components/EngineeringChecksPage';
 import { HazardDetailPage } from '../features/hazards/components/HazardDetailPage';
 import { HazardPrintPage, HazardRegisterPrintPage } from '../features/hazards/components/HazardPrintPage';
@@ -31,6 +32,14 @@ import { PublicLayout } from './layout/PublicLayout';
 import { NotFoundRoute } from './NotFound';
 import { RequireRole } from './RequireRole';
 import { RootError, RouteError } from './RouteError';
+
+// The live count pulls in socket.io and the count screens: loaded only when a count page is opened.
+const CountsPage = lazy(() => import('../features/counts/components/CountsPage').then((m) => ({ default: m.CountsPage })));
+const CountPage = lazy(() => import('../features/counts/components/CountPage').then((m) => ({ default: m.CountPage })));
+
+function Lazy({ children }: { children: ReactNode }) {
+  return <Suspense fallback={<Loading />}>{children}</Suspense>;
+}
 
 export const routes: RouteObject[] = [
   {
@@ -80,7 +89,8 @@ export const routes: RouteObject[] = [
               { path: 'procedures/:id/revisions/:rev', element: <RevisionPage /> },
               { path: 'procedures/:id/revisions/:rev/edit', element: <DraftEditorPage /> },
               { path: 'procedures/:id/revisions/:rev/print', element: <ProcedurePrintPage /> },
-              { path: 'counts', element: <LiveCountPage /> },
+              { path: 'counts', element: <Lazy><CountsPage /></Lazy> },
+              { path: 'counts/:id', element: <Lazy><CountPage /></Lazy> },
               { path: 'records', element: <RecordsPage /> },
               { path: 'profile', element: <ProfilePage /> },
               {

@@ -51,9 +51,9 @@ describe('navigation by role', () => {
 
   it('marks a placeholder area as not built, with no fake content', async () => {
     fakeApi({ 'GET /api/auth/me': json(200, people.operator), 'GET /api/setup': setup });
-    renderApp('/counts');
-    expect(await screen.findByRole('heading', { level: 1, name: 'Live count' })).toBeInTheDocument();
+    renderApp('/records');
+    expect(await screen.findByRole('heading', { level: 1, name: 'Replay and reports' })).toBeInTheDocument();
     expect(screen.getAllByText('Not built yet').length).toBeGreaterThan(0);
-    expect(screen.getByRole('link', { name: 'Live count' })).toHaveAttribute('aria-current', 'page');
+    expect(screen.getByRole('link', { name: 'Records' })).toHaveAttribute('aria-current', 'page');
   });
 });
