@@ -16,16 +16,24 @@ export class CountEvents {
   private pending = new Set<Promise<unknown>>();
   /** Status writes in the order the events happened. */
   private statusChain: Promise<unknown> = Promise.resolve();
+  /** The status last written per count: most events (answers, presence) change none, and write nothing. */
+  private written = new Map<number, string>();
 
   constructor(private readonly deps: { mailer: Mailer; appUrl: string; log: (message: string, error?: unknown) => void }) {}
 
   handle(count: { id: number; state: CountState }, events: CountEventDto[]): void {
     const status = count.state.status;
-    this.statusChain = this.statusChain.then(() => Count.update({ status }, { where: { id: count.id } })).catch((error) => this.deps.log('count status update failed', error));
-    this.track(this.statusChain);
+    if (this.written.get(count.id) !== status) this.writeStatus(count.id, status);
     for (const e of events) {
       if (e.type === 'count:scrubbed') this.track(this.scrubNotice(count, e));
     }
+  }
+
+  private writeStatus(id: number, status: string) {
+    this.written.set(id, status);
+    const count = { id };
+    this.statusChain = this.statusChain.then(() => Count.update({ status }, { where: { id: count.id } })).catch((error) => this.deps.log('count status update failed', error));
+    this.track(this.statusChain);
   }
 
   private track(p: Promise<unknown>) {

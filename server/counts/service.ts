@@ -1,8 +1,13 @@
 /**
- * The live counts this server is the authority for. Every change goes one way: the clock's due events are
- * appended first, then `decide` turns a person's command into facts, the event log commits them, and only then
- * are they folded into the state here and broadcast to the count's room. One promise chain per count keeps
- * decisions in order, so two commands never decide on the same stale state.
+ * The live counts this server is the authority for. Every change goes one way: the clock's due events first,
+ * then `decide` turns a person's command into facts, the event log commits them, and only then are they
+ * acknowledged, folded into the served state and broadcast to the count's room.
+ *
+ * Decisions are made in order, one at a time per count, on the *projected* state: the committed state plus what
+ * has been decided and handed to the log but not yet committed. A decision therefore never waits for the
+ * previous one's disk write, and answers that arrive together are committed together (the log's group commit);
+ * nobody hears of an event before it is on disk. If a commit fails, the count is dropped from memory and read
+ * back from its log on the next use.
  */
 import type { CountCommand } from '../../src/domain/count/commands';
 import { decide } from '../../src/domain/count/commands';
@@ -10,6 +15,7 @@ import { dueEvents, nextDueAt, restartHoldDrafts } from '../../src/domain/count/
 import type { CountEvent, EventDraft } from '../../src/domain/count/events';
 import { replay } from '../../src/domain/count/reduce';
 import { initialCountState, type CountState } from '../../src/domain/count/state';
+import { stampEvents } from '../../src/domain/count/events';
 import type { CountEventDto } from '../../src/contract/count';
 import type { Role } from '../../src/domain/people/roles';
 import { HttpError, notFound } from '../http/errors';
@@ -29,7 +35,14 @@ export interface CountActor {
 interface LiveCount {
   id: number;
   teamId: number;
+  /** Committed: what has been acknowledged and broadcast. Served to clients. */
   state: CountState;
+  /** Committed plus decided-but-not-yet-committed: what the next decision is made on. */
+  projected: CountState;
+  /** commandId -> its events while the commit is in flight. */
+  inflight: Map<string, Promise<CountEventDto[]>>;
+  /** The last append handed to the log: settles after everything before it. */
+  tail: Promise<unknown>;
   /** commandId -> the events that command appended, so a retry gets the first answer. */
   commands: Map<string, CountEventDto[]>;
   timer: NodeJS.Timeout | null;
@@ -100,10 +113,14 @@ export class CountService {
           list.push(events[i]!);
           commands.set(e.commandId, list);
         });
+        const state = replay(events as unknown as CountEvent[]);
         const live: LiveCount = {
           id: countId,
           teamId: row.teamId as number,
-          state: replay(events),
+          state,
+          projected: state,
+          inflight: new Map(),
+          tail: Promise.resolve(),
           commands,
           timer: null,
           chain: Promise.resolve(),
@@ -132,42 +149,69 @@ export class CountService {
     return run;
   }
 
-  /** Appends drafts, folds the stored events in, broadcasts them, and re-arms the clock's timer. */
-  private async append(c: LiveCount, drafts: EventDraft[], commandId?: string): Promise<CountEventDto[]> {
-    if (drafts.length === 0) return [];
-    const stored = await this.deps.log.append(
-      c.id,
-      drafts.map((d) => ({ type: d.type, payload: d.payload, actor: d.actor, station: d.station, at: d.at, commandId: commandId ?? null })),
-    );
-    const events = stored.map(eventDto);
-    c.state = replay(events as unknown as CountEvent[], c.state);
-    if (commandId) c.commands.set(commandId, events);
-    for (const e of events) this.deps.broadcast(c.id, e);
+  /**
+   * Hands drafts to the log and folds them into the projected state at once; the promise resolves with the stored
+   * events after their commit, once they are folded into the served state and broadcast. Call only from inside
+   * the count's queue, so projected seqs follow the log's.
+   */
+  private submit(c: LiveCount, drafts: readonly EventDraft[], commandId?: string): Promise<CountEventDto[]> {
+    if (drafts.length === 0) return Promise.resolve([]);
+    const now = this.now();
+    const timed = drafts.map((d) => ({ ...d, at: d.at ?? now }) as EventDraft & { at: number });
+    c.projected = replay(stampEvents(c.projected.lastSeq, timed, now), c.projected);
+    const committed = this.deps.log
+      .append(
+        c.id,
+        timed.map((d) => ({ type: d.type, payload: d.payload, actor: d.actor, station: d.station, at: d.at, commandId: commandId ?? null })),
+      )
+      .then(
+        (stored) => {
+          const events = stored.map(eventDto);
+          c.state = replay(events as unknown as CountEvent[], c.state);
+          if (commandId) {
+            c.commands.set(commandId, events);
+            c.inflight.delete(commandId);
+          }
+          for (const e of events) this.deps.broadcast(c.id, e);
+          try {
+            this.deps.onEvents?.(c, events);
+          } catch (error) {
+            this.deps.logError?.('count event listener failed', error);
+          }
+          return events;
+        },
+        (error: unknown) => {
+          // The projection now runs ahead of the log: forget this count and read it back from the log next time.
+          if (this.counts.get(c.id) === c) this.counts.delete(c.id);
+          if (c.timer) clearTimeout(c.timer);
+          if (commandId) c.inflight.delete(commandId);
+          throw error;
+        },
+      );
+    if (commandId) c.inflight.set(commandId, committed);
+    c.tail = committed.catch(() => {});
     this.schedule(c);
-    try {
-      this.deps.onEvents?.(c, events);
-    } catch (error) {
-      this.deps.logError?.('count event listener failed', error);
-    }
-    return events;
+    return committed;
   }
 
   /** The clock's own events up to now (steps reached, built-in holds, poll time-outs, T-0). */
-  private async catchUp(c: LiveCount): Promise<CountEventDto[]> {
-    return this.append(c, dueEvents(c.state, this.now()));
+  private catchUp(c: LiveCount): Promise<CountEventDto[]> {
+    return this.submit(c, dueEvents(c.projected, this.now()));
   }
 
   private schedule(c: LiveCount): void {
     if (c.timer) clearTimeout(c.timer);
     c.timer = null;
     if (this.closed) return;
-    const at = nextDueAt(c.state);
+    const at = nextDueAt(c.projected);
     if (at === null) return;
     // setTimeout holds at most about 24.8 days; a count's next moment is never that far, but stay safe.
     const delay = Math.min(Math.max(0, at - this.now()), 2 ** 31 - 1);
     c.timer = setTimeout(() => {
       c.timer = null;
-      void this.enqueue(c, () => this.catchUp(c)).catch((error) => this.deps.logError?.(`count ${c.id}: clock events failed`, error));
+      void this.enqueue(c, async () => ({ done: this.catchUp(c) }))
+        .then((r) => r.done)
+        .catch((error) => this.deps.logError?.(`count ${c.id}: clock events failed`, error));
     }, delay);
     c.timer.unref?.();
   }
@@ -178,22 +222,23 @@ export class CountService {
    */
   async command(teamId: number, countId: number, actor: CountActor, command: CountCommand & { commandId?: string }): Promise<CountEventDto[]> {
     const c = await this.get(teamId, countId);
-    return this.enqueue(c, async () => {
+    // The queue only decides and hands over; the answer waits for the commit outside it.
+    const committed = await this.enqueue(c, async () => {
       const { commandId, ...cmd } = command;
       if (commandId) {
-        const before = c.commands.get(commandId);
-        if (before) return before;
+        const before = c.commands.get(commandId) ?? c.inflight.get(commandId);
+        if (before) return { done: before };
       }
-      await this.catchUp(c);
-      const manned = mannedStations(c.state, actor.id);
-      const decision = decide(c.state, cmd as CountCommand, {
+      void this.catchUp(c).catch(() => {});
+      const decision = decide(c.projected, cmd as CountCommand, {
         now: this.now(),
         actor: { userId: actor.id, name: actor.name, roles: actor.roles },
-        mannedStations: manned,
+        mannedStations: mannedStations(c.projected, actor.id),
       });
       if (!decision.ok) throw new HttpError(decision.status, refusalCode(decision.status), decision.error);
-      return this.append(c, decision.events, commandId);
+      return { done: this.submit(c, decision.events, commandId) };
     });
+    return committed.done;
   }
 
   /** Creates the count's first event; the row must already exist. */
@@ -204,6 +249,9 @@ export class CountService {
       id: countId,
       teamId: row.teamId as number,
       state: initialCountState(),
+      projected: initialCountState(),
+      inflight: new Map(),
+      tail: Promise.resolve(),
       commands: new Map(),
       timer: null,
       chain: Promise.resolve(),
@@ -211,7 +259,7 @@ export class CountService {
       lostTimers: new Map(),
     };
     this.counts.set(countId, live);
-    await this.enqueue(live, () => this.append(live, [created]));
+    await (await this.enqueue(live, async () => ({ done: this.submit(live, [created]) }))).done;
     return live;
   }
 
@@ -232,14 +280,13 @@ export class CountService {
       if (row.status === 'scrubbed' || row.status === 'complete') continue;
       const c = await this.load(row.id);
       if (!c) continue;
-      await this.enqueue(c, async () => {
-        await this.catchUp(c);
-        const hold = restartHoldDrafts(c.state);
-        if (hold.length) {
-          await this.append(c, hold);
-          held.push(c.id);
-        }
+      const done = await this.enqueue(c, async () => {
+        void this.catchUp(c).catch(() => {});
+        const hold = restartHoldDrafts(c.projected);
+        if (hold.length) held.push(c.id);
+        return this.submit(c, hold);
       });
+      await done;
     }
     return held;
   }
@@ -250,7 +297,7 @@ export class CountService {
   async connect(c: LiveCount, socketId: string, userId: number): Promise<void> {
     const stations = mannedStations(c.state, userId);
     if (!stations.length) return;
-    await this.enqueue(c, async () => {
+    const done = await this.enqueue(c, async () => {
       const drafts: EventDraft[] = [];
       for (const station of stations) {
         const set = c.present.get(station) ?? new Set<string>();
@@ -261,12 +308,13 @@ export class CountService {
           clearTimeout(lost);
           c.lostTimers.delete(station);
         }
-        if (c.state.stations[station]?.presence !== 'connected') {
+        if (c.projected.stations[station]?.presence !== 'connected') {
           drafts.push({ type: 'station:connected', payload: { station }, actor: null, station } as EventDraft);
         }
       }
-      await this.append(c, drafts);
+      return this.submit(c, drafts);
     });
+    await done;
   }
 
   /** A socket left: a station with no connection left for STATION_GRACE_MS shows as lost. */
@@ -279,8 +327,8 @@ export class CountService {
         c.lostTimers.delete(station);
         if ((c.present.get(station)?.size ?? 0) > 0) return;
         void this.enqueue(c, async () => {
-          if ((c.present.get(station)?.size ?? 0) > 0 || c.state.stations[station]?.presence !== 'connected') return;
-          await this.append(c, [{ type: 'station:lost', payload: { station }, actor: null, station } as EventDraft]);
+          if ((c.present.get(station)?.size ?? 0) > 0 || c.projected.stations[station]?.presence !== 'connected') return;
+          await this.submit(c, [{ type: 'station:lost', payload: { station }, actor: null, station } as EventDraft]);
         }).catch((error) => this.deps.logError?.(`count ${c.id}: presence failed`, error));
       }, STATION_GRACE_MS);
       timer.unref?.();
@@ -300,7 +348,10 @@ export class CountService {
 
   /** Waits for every queued append (for a clean shutdown and for tests). */
   async settle(): Promise<void> {
-    await Promise.all([...this.counts.values()].map((c) => c.chain));
+    await Promise.all([...this.counts.values()].map(async (c) => {
+      await c.chain;
+      await c.tail;
+    }));
   }
 }
 

@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { User } from '../../server/models';
 import { DEMO } from '../helpers/api';
 import { startTestApp, waitForMail, type TestApp, type TestClient } from '../helpers/app';
 import { demoRevision, releasedShortProcedure } from '../helpers/counts';
@@ -154,6 +155,38 @@ describe('commands over HTTP (the same path as the socket)', () => {
     const state = (await conductor.get(`/api/counts/${id}/state`).expect(200)).body;
     expect(state.status).toBe('holding');
     expect(state.hold).toMatchObject({ source: 'redline', reason: 'redline: LOX tank pressure: 14.6 bar above 14' });
+  });
+});
+
+describe('answers that arrive together', () => {
+  it('are decided in order and committed together, not one disk write each', async () => {
+    const id = await newDemoCount('Run for grouping');
+    await command(conductor, id, { type: 'count:start' }).expect(200);
+    const stations = ['PROP', 'PAD', 'DATA', 'RANGE', 'SAFE', 'TC'];
+    const opened = await command(conductor, id, { type: 'poll:open', stations, timeoutSeconds: 600 }).expect(200);
+    const pollId = opened.body.events[0].payload.pollId;
+    const state = (await conductor.get(`/api/counts/${id}`).expect(200)).body.state;
+    const people = await Promise.all(
+      stations.map(async (station) => {
+        const userId = state.plan.crew.find((c: { station: string }) => c.station === station).userIds[0];
+        const u = (await User.findByPk(userId))!;
+        return { station, actor: { id: u.id, teamId: u.teamId, name: u.name, roles: u.roles } };
+      }),
+    );
+    const service = t.holdfire.counts;
+    const before = t.holdfire.eventLog.commits;
+    const answers = await Promise.all(
+      people.map((p) => service.command(p.actor.teamId, id, p.actor, { type: 'poll:answer', pollId, station: p.station, answer: 'go' })),
+    );
+    const commits = t.holdfire.eventLog.commits - before;
+    expect(commits).toBeGreaterThanOrEqual(1);
+    expect(commits).toBeLessThan(stations.length);
+    // In the order they were sent, the last one closing the poll, with consecutive seqs.
+    expect(answers.map((a) => a[0]!.payload)).toEqual(stations.map((station) => expect.objectContaining({ station, answer: 'go' })));
+    expect(answers.at(-1)!.map((e) => e.type)).toEqual(['poll:answered', 'poll:closed']);
+    const seqs = answers.flat().map((e) => e.seq);
+    expect(seqs).toEqual(seqs.map((_, i) => seqs[0]! + i));
+    expect(await t.holdfire.eventLog.verify(id)).toMatchObject({ ok: true });
   });
 });
 
