@@ -7,7 +7,9 @@ import type { ClientToServerEvents, ServerToClientEvents } from '../contract/soc
  */
 export type HoldfireSocket = Socket<ServerToClientEvents, ClientToServerEvents>;
 
-const realFactory = (): HoldfireSocket => io({ withCredentials: true });
+// WebSocket first, long-polling only where a WebSocket cannot be opened: starting on polling and upgrading costs
+// twice the server memory per phone and can lose a polling request in the upgrade.
+const realFactory = (): HoldfireSocket => io({ withCredentials: true, transports: ['websocket', 'polling'], tryAllTransports: true });
 
 let factory: () => HoldfireSocket = realFactory;
 let shared: HoldfireSocket | null = null;

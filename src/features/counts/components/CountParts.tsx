@@ -33,7 +33,7 @@ export function BigClock({ t, size = 'huge' }: { t: number; size?: 'huge' | 'lar
     <p
       role="timer"
       aria-label={`Count time ${text}`}
-      className={`font-mono font-bold leading-none tracking-tight text-ink tabular-nums ${size === 'huge' ? 'text-6xl sm:text-8xl lg:text-9xl' : 'text-5xl sm:text-7xl'}`}
+      className={`font-mono font-bold leading-none tracking-tight text-ink tabular-nums ${size === 'huge' ? 'text-[clamp(2.25rem,14vw,3.75rem)] sm:text-8xl lg:text-9xl' : 'text-[clamp(2rem,12vw,3rem)] sm:text-7xl'}`}
     >
       {text}
     </p>
@@ -222,7 +222,8 @@ export function CountLog({ log, plan, limit = 200 }: { log: readonly LogEntry[];
     <section aria-label="Count log" className="rounded-md border-2 border-line bg-surface p-3">
       <h2 className="mb-2 text-xl font-bold">Log (newest first)</h2>
       {lines.length === 0 ? <p className="text-ink-muted">Nothing logged yet.</p> : null}
-      <ol className="flex max-h-96 flex-col gap-1 overflow-y-auto font-mono text-sm">
+      {/* Scrolls on its own: focusable so a keyboard can scroll it too. */}
+      <ol tabIndex={0} aria-label="Logged events, newest first" className="flex max-h-96 flex-col gap-1 overflow-y-auto font-mono text-sm">
         {lines.map(({ event, t }) => (
           <li key={event.seq} className={event.type === 'hold:called' || event.type === 'count:scrubbed' ? 'font-bold text-danger' : ''}>
             {clockTime(event.at)} {formatCountClock(t)} {eventWords(event, plan)}

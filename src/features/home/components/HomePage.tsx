@@ -12,9 +12,9 @@ interface Area {
 }
 
 const AREAS = {
-  hazards: { to: '/hazards', label: 'Hazard register', built: false },
-  procedures: { to: '/procedures', label: 'Procedures', built: false },
-  counts: { to: '/counts', label: 'Live count', built: false },
+  hazards: { to: '/hazards', label: 'Hazard register', built: true },
+  procedures: { to: '/procedures', label: 'Procedures', built: true },
+  counts: { to: '/counts', label: 'Live count', built: true },
   records: { to: '/records', label: 'Replay and reports', built: false },
   people: { to: '/admin/people', label: 'People', built: true },
   mail: { to: '/admin/mail', label: 'Mail outbox', built: true },
