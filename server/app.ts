@@ -196,6 +196,8 @@ export function createApp(deps: AppDeps): HoldfireApp {
       counts.close();
       await counts.settle();
       await countEvents.settle();
+      // After settle nothing more is appended; the log's own database connection goes with the app.
+      await eventLog.close();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       if (httpServer.listening) await new Promise<void>((resolve) => httpServer.close(() => resolve()));
     },

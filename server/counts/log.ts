@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { Op, type Sequelize, type Transaction } from 'sequelize';
+import { Op, type Sequelize } from 'sequelize';
 import {
   canonicalJson,
   eventHash,
@@ -9,8 +9,8 @@ import {
   type ChainVerdict,
   type EventActor,
 } from '../../src/domain/count/chain';
-import { Count } from '../models/count.model';
 import { CountEvent } from '../models/count-event.model';
+import { SequelizeLogWriter, SqliteLogWriter, sqliteFile, type LogTransaction, type LogWriter } from './log-writer';
 
 /** SHA-256 as lowercase hex of the UTF-8 text, for chain.ts. */
 export function sha256Hex(text: string): Promise<string> {
@@ -55,10 +55,11 @@ interface Tail {
 }
 
 const LIMITS = { type: 60, actorName: 120, station: 40, commandId: 100 };
-// One INSERT per chunk keeps a very large group within SQLite's statement size without a commit per event.
-const INSERT_CHUNK = 200;
+// Command ids looked up per query, within SQLite's limit on bound values.
+const LOOKUP_CHUNK = 200;
 
 export interface EventLogDeps {
+  /** Reads go through it; writes through the log's own connection to the same SQLite file. */
   sequelize: Sequelize;
   /** Server time in epoch milliseconds; tests pass a fixed clock. */
   now?: () => number;
@@ -71,17 +72,33 @@ export interface EventLogDeps {
  * group instead of one per event. One EventLog per process owns the writes of its counts.
  */
 export class EventLog {
-  private readonly sequelize: Sequelize;
+  private readonly writer: LogWriter;
   private readonly now: () => number;
   private queue: Pending[] = [];
-  private draining = false;
+  /** The running drain, if any; close() waits for it. */
+  private draining: Promise<void> | null = null;
+  private closed = false;
   /** Last seq and hash per count, so a commit need not read them back. Only committed values go here. */
   private readonly tails = new Map<number, Tail>();
   private committed = 0;
 
   constructor(deps: EventLogDeps) {
-    this.sequelize = deps.sequelize;
+    const file = sqliteFile(deps.sequelize);
+    // An in-memory database lives on Sequelize's one connection: a second connection would open another, empty one.
+    this.writer = file === null ? new SequelizeLogWriter(deps.sequelize) : new SqliteLogWriter(file);
     this.now = deps.now ?? Date.now;
+  }
+
+  /** Waits for the appends already queued, then closes the log's connection; later appends are refused. */
+  async close(): Promise<void> {
+    this.closed = true;
+    while (this.draining) await this.draining;
+    await this.writer.close();
+  }
+
+  /** The write connection's settings (journal mode, synchronous, foreign keys, busy timeout), for tests. */
+  settings(): ReturnType<LogWriter['settings']> {
+    return this.writer.settings();
   }
 
   /** Transactions this log has committed; read by tests and benchmarks. */
@@ -105,13 +122,11 @@ export class EventLog {
       return Promise.reject(error);
     }
     if (drafts.length === 0) return Promise.resolve([]);
+    if (this.closed) return Promise.reject(new Error('The event log is closed.'));
     return new Promise<StoredEvent[]>((resolve, reject) => {
       this.queue.push({ countId, ...checked, resolve, reject });
-      if (!this.draining) {
-        this.draining = true;
-        // Start on a later turn so appends made in the same turn share the first transaction too.
-        setImmediate(() => void this.drain());
-      }
+      // Start on a later turn so appends made in the same turn share the first transaction too.
+      this.draining ??= new Promise<void>((resolve) => setImmediate(resolve)).then(() => this.drain());
     });
   }
 
@@ -149,7 +164,7 @@ export class EventLog {
       this.queue = [];
       await this.commitGroup(group);
     }
-    this.draining = false;
+    this.draining = null;
   }
 
   private async commitGroup(group: Pending[]): Promise<void> {
@@ -157,9 +172,9 @@ export class EventLog {
     const newTails = new Map<number, Tail>();
     const outcomes = new Map<Pending, StoredEvent[] | EventLogError>();
     try {
-      await this.sequelize.transaction(async (transaction) => {
-        const known = await this.loadTails(countIds, transaction);
-        const earlier = await this.storedCommands(group, transaction);
+      await this.writer.transaction(async (tx) => {
+        const known = await this.loadTails(countIds, tx);
+        const earlier = await storedCommands(group, tx);
         const rows: StoredEvent[] = [];
         for (const pending of group) {
           const tail = newTails.get(pending.countId) ?? known.get(pending.countId);
@@ -196,9 +211,7 @@ export class EventLog {
           outcomes.set(pending, stored);
           rows.push(...stored);
         }
-        for (let i = 0; i < rows.length; i += INSERT_CHUNK) {
-          await CountEvent.bulkCreate(rows.slice(i, i + INSERT_CHUNK).map(toRow), { transaction, validate: false });
-        }
+        await tx.insert(rows);
       });
     } catch (error) {
       // Nothing of the group is stored; forget the tails so the next commit reads them from the database.
@@ -216,7 +229,7 @@ export class EventLog {
   }
 
   /** Committed tails, read from the database (inside the write transaction) for counts not yet cached. */
-  private async loadTails(countIds: number[], transaction: Transaction): Promise<Map<number, Tail>> {
+  private async loadTails(countIds: number[], tx: LogTransaction): Promise<Map<number, Tail>> {
     const tails = new Map<number, Tail>();
     const missing: number[] = [];
     for (const id of countIds) {
@@ -225,33 +238,44 @@ export class EventLog {
       else missing.push(id);
     }
     if (missing.length === 0) return tails;
-    const counts = await Count.findAll({ where: { id: missing }, attributes: ['id'], transaction });
+    const counts = await tx.all<{ id: number }>(`SELECT id FROM counts WHERE id IN (${marks(missing.length)})`, missing);
     for (const { id } of counts) {
-      const last = await CountEvent.findOne({ where: { countId: id }, order: [['seq', 'DESC']], attributes: ['seq', 'hash'], transaction });
+      const [last] = await tx.all<Tail>('SELECT seq, hash FROM count_events WHERE count_id = ? ORDER BY seq DESC LIMIT 1', [id]);
       tails.set(id, last ? { seq: last.seq, hash: last.hash } : { seq: 0, hash: GENESIS_HASH });
     }
     return tails;
   }
+}
 
-  /** Events already stored for the group's command ids, by count and command. */
-  private async storedCommands(group: Pending[], transaction: Transaction): Promise<Map<string, StoredEvent[]>> {
-    const found = new Map<string, StoredEvent[]>();
-    const byCount = new Map<number, Set<string>>();
-    for (const p of group) {
-      if (p.commandId === null) continue;
-      const ids = byCount.get(p.countId) ?? new Set<string>();
-      ids.add(p.commandId);
-      byCount.set(p.countId, ids);
-    }
-    for (const [countId, ids] of byCount) {
-      const rows = await CountEvent.findAll({ where: { countId, commandId: [...ids] }, order: [['seq', 'ASC']], transaction });
+/** Events already stored for the group's command ids, by count and command. */
+async function storedCommands(group: Pending[], tx: LogTransaction): Promise<Map<string, StoredEvent[]>> {
+  const found = new Map<string, StoredEvent[]>();
+  const byCount = new Map<number, Set<string>>();
+  for (const p of group) {
+    if (p.commandId === null) continue;
+    const ids = byCount.get(p.countId) ?? new Set<string>();
+    ids.add(p.commandId);
+    byCount.set(p.countId, ids);
+  }
+  for (const [countId, set] of byCount) {
+    const ids = [...set];
+    for (let i = 0; i < ids.length; i += LOOKUP_CHUNK) {
+      const chunk = ids.slice(i, i + LOOKUP_CHUNK);
+      const rows = await tx.all<RawEvent>(
+        `SELECT ${RAW_COLUMNS} FROM count_events WHERE count_id = ? AND command_id IN (${marks(chunk.length)}) ORDER BY seq`,
+        [countId, ...chunk],
+      );
       for (const row of rows) {
-        const key = commandKey(countId, row.commandId!);
-        found.set(key, [...(found.get(key) ?? []), toStored(row)]);
+        const key = commandKey(countId, row.command_id!);
+        found.set(key, [...(found.get(key) ?? []), fromRaw(row)]);
       }
     }
-    return found;
   }
+  return found;
+}
+
+function marks(n: number): string {
+  return Array.from({ length: n }, () => '?').join(', ');
 }
 
 function commandKey(countId: number, commandId: string): string {
@@ -296,19 +320,35 @@ function checkDrafts(countId: number, drafts: EventDraft[]): { commandId: string
   return { commandId, drafts: copies };
 }
 
-function toRow(e: StoredEvent) {
+/** A count_events row as read with RAW_COLUMNS, through the log's own connection. */
+interface RawEvent {
+  count_id: number;
+  seq: number;
+  type: string;
+  payload: string;
+  actor_user_id: number | null;
+  actor_name: string | null;
+  station: string | null;
+  at: number;
+  command_id: string | null;
+  prev_hash: string;
+  hash: string;
+}
+
+const RAW_COLUMNS = 'count_id, seq, type, payload, actor_user_id, actor_name, station, at, command_id, prev_hash, hash';
+
+function fromRaw(row: RawEvent): StoredEvent {
   return {
-    countId: e.countId,
-    seq: e.seq,
-    type: e.type,
-    payload: e.payload,
-    actorUserId: e.actor?.userId ?? null,
-    actorName: e.actor?.name ?? null,
-    station: e.station,
-    at: e.at,
-    commandId: e.commandId,
-    prevHash: e.prevHash,
-    hash: e.hash,
+    countId: row.count_id,
+    seq: row.seq,
+    type: row.type,
+    at: row.at,
+    actor: row.actor_name === null ? null : { userId: row.actor_user_id, name: row.actor_name },
+    station: row.station,
+    payload: JSON.parse(row.payload) as unknown,
+    commandId: row.command_id,
+    prevHash: row.prev_hash,
+    hash: row.hash,
   };
 }
 

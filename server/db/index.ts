@@ -1,7 +1,7 @@
 import { Sequelize, Transaction } from 'sequelize';
 import type { Config } from '../config';
 
-const BUSY_TIMEOUT_MS = 5000;
+export const BUSY_TIMEOUT_MS = 5000;
 
 interface SqliteConnection {
   configure(option: 'busyTimeout', value: number): void;

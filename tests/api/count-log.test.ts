@@ -2,8 +2,9 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { Sequelize } from 'sequelize';
+import sqlite3 from 'sqlite3';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import { EventLog, EventLogError, sha256Hex, type EventDraft } from '../../server/counts/log';
+import { EventLog, EventLogError, sha256Hex, type EventDraft, type EventLogDeps } from '../../server/counts/log';
 import { CountEvent, Procedure, Team } from '../../server/models';
 import { eventHash, GENESIS_HASH, verifyChain } from '../../src/domain/count/chain';
 import { createCount, openCountDatabase, walCommits } from '../helpers/count-log';
@@ -18,9 +19,18 @@ beforeAll(async () => {
   sequelize = await openCountDatabase(dbFile);
 });
 afterAll(async () => {
+  for (const log of logs) await log.close();
   await sequelize.close();
   rmSync(dir, { recursive: true, force: true });
 });
+
+// Each EventLog has its own database connection; they are closed before the database.
+const logs: EventLog[] = [];
+function newLog(deps: Partial<EventLogDeps> = {}): EventLog {
+  const log = new EventLog({ sequelize, ...deps });
+  logs.push(log);
+  return log;
+}
 
 const tc = { userId: 1, name: 'Ines Okafor' };
 const draft = (type: string, payload: unknown, extra: Partial<EventDraft> = {}): EventDraft => ({ type, payload, actor: tc, station: 'TC', ...extra });
@@ -46,12 +56,18 @@ describe('database settings', () => {
     });
     expect(inside).toBe(2);
   });
+
+  it("uses WAL, synchronous=FULL, foreign keys and a busy timeout on the log's own write connection", async () => {
+    const log = newLog();
+    // 2 = FULL (SQLite documentation, PRAGMA synchronous); 5000 ms is server/db's BUSY_TIMEOUT_MS.
+    expect(await log.settings()).toEqual({ journalMode: 'wal', synchronous: 2, foreignKeys: 1, busyTimeout: 5000 });
+  });
 });
 
 describe('EventLog.append', () => {
   it('numbers events from 1 and chains their hashes, with the server time unless one is given', async () => {
     let clock = 1767225600000;
-    const log = new EventLog({ sequelize, now: () => clock });
+    const log = newLog({ now: () => clock });
     const count = await createCount();
     const first = await log.append(count.id, [draft('count:created', { revision: 1 }), draft('poll:opened', { step: 'go-for-loading' }, { at: 42 })]);
     clock += 1500;
@@ -69,13 +85,13 @@ describe('EventLog.append', () => {
     expect(await verifyChain(stored, sha256Hex)).toEqual({ ok: true, count: 3 });
     expect(await log.verify(count.id)).toEqual({ ok: true, count: 3 });
     // A new log (a restarted server) continues the chain from the database.
-    const [next] = await new EventLog({ sequelize }).append(count.id, [draft('hold:released', {})]);
+    const [next] = await newLog().append(count.id, [draft('hold:released', {})]);
     expect(next).toMatchObject({ seq: 4, prevHash: second[0]!.hash });
     expect(await log.verify(count.id)).toEqual({ ok: true, count: 4 });
   });
 
   it('stores the payload as canonical JSON text and the caller changing its object afterwards changes nothing', async () => {
-    const log = new EventLog({ sequelize });
+    const log = newLog();
     const count = await createCount();
     const payload = { z: 1, a: { y: [1, 'two'], b: null } };
     const pending = log.append(count.id, [draft('reading:recorded', payload)]);
@@ -87,7 +103,7 @@ describe('EventLog.append', () => {
   });
 
   it('refuses bad drafts and unknown counts without writing, and without failing the others in the group', async () => {
-    const log = new EventLog({ sequelize });
+    const log = newLog();
     const count = await createCount();
     const results = await Promise.allSettled([
       log.append(count.id, [draft('a', { n: 1 })]),
@@ -105,7 +121,7 @@ describe('EventLog.append', () => {
   });
 
   it('refuses updates and deletes of events at the database', async () => {
-    const log = new EventLog({ sequelize });
+    const log = newLog();
     const count = await createCount();
     await log.append(count.id, [draft('count:created', {})]);
     // Sequelize reports SQLite's constraint error as a ValidationError; SQLite's own message is in `parent`.
@@ -129,13 +145,15 @@ describe('group commit', () => {
   });
 
   it('many callers appending at once get one gapless, ordered chain in fewer durable commits than appends', async () => {
-    const log = new EventLog({ sequelize });
+    const log = newLog();
     const count = await createCount();
     await log.append(count.id, [draft('count:created', {})]);
     // Start the write-ahead log afresh so its commit frames are this test's commits only.
     await sequelize.query('PRAGMA wal_checkpoint(TRUNCATE);');
     expect(walCommits(dbFile)).toBe(0);
     const transactions = vi.spyOn(sequelize, 'transaction');
+    // The log writes on its own sqlite3 connection: count the transactions it begins there.
+    const run = vi.spyOn(sqlite3.Database.prototype, 'run');
     const commitsBefore = log.commits;
 
     const CALLERS = 20;
@@ -149,8 +167,10 @@ describe('group commit', () => {
         }
       }),
     );
-    const started = transactions.mock.calls.length;
+    const sequelizeTransactions = transactions.mock.calls.length;
+    const started = run.mock.calls.filter(([sql]) => sql === 'BEGIN IMMEDIATE').length;
     transactions.mockRestore();
+    run.mockRestore();
 
     const appends = CALLERS * EACH;
     const events = await log.read(count.id);
@@ -167,8 +187,10 @@ describe('group commit', () => {
 
     const walCommitted = walCommits(dbFile);
     const logCommits = log.commits - commitsBefore;
-    // The commits counted three ways agree: Sequelize transactions started, the log's own counter, and the
-    // commit frames SQLite wrote to disk. A BEGIN that ran after its inserts would show as one commit per row here.
+    // The commits counted three ways agree: transactions begun on the log's connection, the log's own counter,
+    // and the commit frames SQLite wrote to disk. A BEGIN that ran after its inserts would show as one commit per
+    // row here. None went through Sequelize (which would open a connection per transaction).
+    expect(sequelizeTransactions).toBe(0);
     expect(started).toBe(logCommits);
     expect(walCommitted).toBe(logCommits);
     expect(logCommits).toBeLessThan(appends / 2);
@@ -176,7 +198,7 @@ describe('group commit', () => {
   });
 
   it('keeps appends to several counts in one group apart, each chain gapless', async () => {
-    const log = new EventLog({ sequelize });
+    const log = newLog();
     const [a, b] = [await createCount('A'), await createCount('B')];
     await Promise.all(Array.from({ length: 30 }, (_, k) => log.append(k % 2 === 0 ? a.id : b.id, [draft('x', { k })])));
     for (const c of [a, b]) {
@@ -188,9 +210,42 @@ describe('group commit', () => {
   });
 });
 
+describe('a failed group', () => {
+  it('is rejected whole, stores nothing, and the tails are read again (another writer cannot fork the chain)', async () => {
+    const log = newLog();
+    const count = await createCount();
+    await log.append(count.id, [draft('count:created', {})]);
+    // A second log (its own connection) appends behind the first one's cached tail.
+    const [intruder] = await newLog().append(count.id, [draft('x', { by: 'other' })]);
+    expect(intruder!.seq).toBe(2);
+
+    const commitsBefore = log.commits;
+    const results = await Promise.allSettled([log.append(count.id, [draft('a', {})]), log.append(count.id, [draft('b', {})])]);
+    expect(results.map((r) => r.status)).toEqual(['rejected', 'rejected']);
+    expect((results[0] as PromiseRejectedResult).reason.message).toMatch(/UNIQUE/);
+    expect(log.commits).toBe(commitsBefore);
+    expect((await log.read(count.id)).map((e) => e.type)).toEqual(['count:created', 'x']);
+
+    // The next append reads the tail from the database and continues the chain after the other writer's event.
+    const [next] = await log.append(count.id, [draft('c', {})]);
+    expect(next).toMatchObject({ seq: 3, prevHash: intruder!.hash });
+    expect(await log.verify(count.id)).toEqual({ ok: true, count: 3 });
+  });
+
+  it('after close, refuses appends; appends queued before close are committed', async () => {
+    const log = new EventLog({ sequelize });
+    const count = await createCount();
+    const queued = log.append(count.id, [draft('count:created', {})]);
+    await log.close();
+    expect((await queued).map((e) => e.seq)).toEqual([1]);
+    await expect(log.append(count.id, [draft('x', {})])).rejects.toThrow(/closed/);
+    expect(await rows(count.id)).toBe(1);
+  });
+});
+
 describe('idempotency by commandId', () => {
   it('a retry returns the stored events of the command and stores nothing twice', async () => {
-    const log = new EventLog({ sequelize });
+    const log = newLog();
     const count = await createCount();
     const cmd = [draft('hold:called', { reason: 'wind' }, { commandId: 'cmd-1' }), draft('clock:stopped', {}, { commandId: 'cmd-1' })];
     const first = await log.append(count.id, cmd);
@@ -205,7 +260,7 @@ describe('idempotency by commandId', () => {
     ]);
     expect(y).toEqual(x);
     expect(x!.map((e) => e.seq)).toEqual([3]);
-    expect(await new EventLog({ sequelize }).append(count.id, [draft('hold:released', {}, { commandId: 'cmd-2' })])).toEqual(x);
+    expect(await newLog().append(count.id, [draft('hold:released', {}, { commandId: 'cmd-2' })])).toEqual(x);
     expect(await rows(count.id)).toBe(3);
 
     // The same commandId on another count is another command.
@@ -217,7 +272,7 @@ describe('idempotency by commandId', () => {
 
 describe('tampering', () => {
   async function loggedCount(n: number) {
-    const log = new EventLog({ sequelize });
+    const log = newLog();
     const count = await createCount();
     for (let k = 1; k <= n; k += 1) await log.append(count.id, [draft('reading:recorded', { bar: 200 + k })]);
     expect(await log.verify(count.id)).toEqual({ ok: true, count: n });

@@ -1,0 +1,200 @@
+import sqlite3 from 'sqlite3';
+import { QueryTypes, type Sequelize } from 'sequelize';
+import { canonicalJson } from '../../src/domain/count/chain';
+import { BUSY_TIMEOUT_MS } from '../db';
+
+/** The columns of count_events the log writes, in the order of INSERT_SQL's values. */
+const INSERT_COLUMNS = 'count_id, seq, type, payload, actor_user_id, actor_name, station, at, command_id, prev_hash, hash';
+const ROW_MARKS = `(${INSERT_COLUMNS.split(',').map(() => '?').join(', ')})`;
+const INSERT_SQL = `INSERT INTO count_events (${INSERT_COLUMNS}) VALUES ${ROW_MARKS}`;
+// One multi-row INSERT per chunk in the fallback keeps a large group within SQLite's limit on bound values.
+const FALLBACK_INSERT_CHUNK = 200;
+
+export interface EventRow {
+  countId: number;
+  seq: number;
+  type: string;
+  payload: unknown;
+  actor: { userId: number | null; name: string } | null;
+  station: string | null;
+  at: number;
+  commandId: string | null;
+  prevHash: string;
+  hash: string;
+}
+
+/** What the event log may do inside its one write transaction. */
+export interface LogTransaction {
+  all<R>(sql: string, params: unknown[]): Promise<R[]>;
+  insert(rows: EventRow[]): Promise<void>;
+}
+
+/**
+ * Runs the event log's write transactions. transaction() resolves only after COMMIT has returned (with
+ * synchronous=FULL: after the WAL is synced); if `work` or the COMMIT fails, it rolls back and rejects.
+ * Callers run one transaction at a time.
+ */
+export interface LogWriter {
+  transaction(work: (tx: LogTransaction) => Promise<void>): Promise<void>;
+  /** The connection's settings, for tests and diagnostics. */
+  settings(): Promise<{ journalMode: string; synchronous: number; foreignKeys: number; busyTimeout: number }>;
+  close(): Promise<void>;
+}
+
+function values(row: EventRow): unknown[] {
+  return [
+    row.countId,
+    row.seq,
+    row.type,
+    canonicalJson(row.payload),
+    row.actor?.userId ?? null,
+    row.actor?.name ?? null,
+    row.station,
+    row.at,
+    row.commandId,
+    row.prevHash,
+    row.hash,
+  ];
+}
+
+/** The SQLite file behind a Sequelize instance, or null for an in-memory database (which one connection owns). */
+export function sqliteFile(sequelize: Sequelize): string | null {
+  if (sequelize.getDialect() !== 'sqlite') throw new Error('The event log needs the sqlite dialect.');
+  const storage = (sequelize as unknown as { options: { storage?: string } }).options.storage;
+  if (!storage || storage === ':memory:' || storage.startsWith('file::memory:')) return null;
+  return storage;
+}
+
+/**
+ * The log's own long-lived connection to the database file. Sequelize's SQLite dialect opens and closes a new
+ * connection for every transaction, so each group commit would also pay for opening the file and configuring
+ * the connection; here that happens once, and the INSERT is prepared once.
+ *
+ * Every step is awaited before the next is sent: node-sqlite3 runs statements on a thread pool, and a BEGIN
+ * issued without waiting (or from inside a statement's callback) can run after the inserts, which then commit
+ * one by one without any error.
+ */
+export class SqliteLogWriter implements LogWriter {
+  private opened: Promise<{ db: sqlite3.Database; insert: sqlite3.Statement }> | null = null;
+  private closed = false;
+
+  constructor(private readonly file: string) {}
+
+  private connection() {
+    if (this.closed) return Promise.reject(new Error('The event log is closed.'));
+    this.opened ??= this.open();
+    return this.opened;
+  }
+
+  private async open() {
+    const db = await new Promise<sqlite3.Database>((resolve, reject) => {
+      const d: sqlite3.Database = new sqlite3.Database(this.file, sqlite3.OPEN_READWRITE, (error) => (error ? reject(error) : resolve(d)));
+    });
+    try {
+      db.configure('busyTimeout', BUSY_TIMEOUT_MS);
+      // WAL is the file's mode already (server/db/index.ts); FULL syncs the WAL at every commit, so an
+      // acknowledged event survives a power cut; foreign keys as on Sequelize's connections.
+      await run(db, 'PRAGMA journal_mode = WAL');
+      await run(db, 'PRAGMA synchronous = FULL');
+      await run(db, 'PRAGMA foreign_keys = ON');
+      const insert = await new Promise<sqlite3.Statement>((resolve, reject) => {
+        const s: sqlite3.Statement = db.prepare(INSERT_SQL, (error: Error | null) => (error ? reject(error) : resolve(s)));
+      });
+      return { db, insert };
+    } catch (error) {
+      await new Promise<void>((resolve) => db.close(() => resolve()));
+      this.opened = null;
+      throw error;
+    }
+  }
+
+  async transaction(work: (tx: LogTransaction) => Promise<void>): Promise<void> {
+    const { db, insert } = await this.connection();
+    await run(db, 'BEGIN IMMEDIATE');
+    try {
+      await work({
+        all: <R>(sql: string, params: unknown[]) =>
+          new Promise<R[]>((resolve, reject) => db.all(sql, params, (error: Error | null, rows: R[]) => (error ? reject(error) : resolve(rows)))),
+        insert: async (rows) => {
+          // The runs queue on the one statement in call order; COMMIT is sent only after every one has finished.
+          const results = await Promise.allSettled(
+            rows.map((row) => new Promise<void>((resolve, reject) => insert.run(values(row), (error: Error | null) => (error ? reject(error) : resolve())))),
+          );
+          const failed = results.find((r): r is PromiseRejectedResult => r.status === 'rejected');
+          if (failed) throw failed.reason;
+        },
+      });
+      await run(db, 'COMMIT');
+    } catch (error) {
+      // After a failed COMMIT the transaction may still be open; after some errors SQLite has already rolled
+      // back, and this ROLLBACK's own "no transaction is active" is of no interest.
+      await run(db, 'ROLLBACK').catch(() => {});
+      throw error;
+    }
+  }
+
+  async settings() {
+    const { db } = await this.connection();
+    const get = <R>(sql: string) => new Promise<R>((resolve, reject) => db.get(sql, (error: Error | null, row: R) => (error ? reject(error) : resolve(row))));
+    return {
+      journalMode: (await get<{ journal_mode: string }>('PRAGMA journal_mode')).journal_mode,
+      synchronous: (await get<{ synchronous: number }>('PRAGMA synchronous')).synchronous,
+      foreignKeys: (await get<{ foreign_keys: number }>('PRAGMA foreign_keys')).foreign_keys,
+      busyTimeout: (await get<{ timeout: number }>('PRAGMA busy_timeout')).timeout,
+    };
+  }
+
+  async close(): Promise<void> {
+    this.closed = true;
+    const opened = this.opened;
+    this.opened = null;
+    if (!opened) return;
+    const { db, insert } = await opened.catch(() => ({ db: null, insert: null }));
+    if (!db || !insert) return;
+    await new Promise<void>((resolve) => insert.finalize(() => resolve()));
+    await new Promise<void>((resolve, reject) => db.close((error) => (error ? reject(error) : resolve())));
+  }
+}
+
+function run(db: sqlite3.Database, sql: string): Promise<void> {
+  return new Promise((resolve, reject) => db.run(sql, (error: Error | null) => (error ? reject(error) : resolve())));
+}
+
+/**
+ * For an in-memory database, which exists only on Sequelize's one connection: the log's transactions go through
+ * sequelize.transaction (on ':memory:' Sequelize reuses that connection instead of opening a new one).
+ */
+export class SequelizeLogWriter implements LogWriter {
+  constructor(private readonly sequelize: Sequelize) {}
+
+  async transaction(work: (tx: LogTransaction) => Promise<void>): Promise<void> {
+    await this.sequelize.transaction(async (transaction) => {
+      await work({
+        all: <R>(sql: string, params: unknown[]) =>
+          this.sequelize.query(sql, { replacements: params, type: QueryTypes.SELECT, transaction }) as Promise<R[]>,
+        insert: async (rows) => {
+          for (let i = 0; i < rows.length; i += FALLBACK_INSERT_CHUNK) {
+            const chunk = rows.slice(i, i + FALLBACK_INSERT_CHUNK);
+            await this.sequelize.query(`INSERT INTO count_events (${INSERT_COLUMNS}) VALUES ${chunk.map(() => ROW_MARKS).join(', ')}`, {
+              replacements: chunk.flatMap(values),
+              type: QueryTypes.INSERT,
+              transaction,
+            });
+          }
+        },
+      });
+    });
+  }
+
+  async settings() {
+    const get = async <R>(sql: string) => ((await this.sequelize.query(sql, { type: QueryTypes.SELECT })) as R[])[0]!;
+    return {
+      journalMode: (await get<{ journal_mode: string }>('PRAGMA journal_mode')).journal_mode,
+      synchronous: (await get<{ synchronous: number }>('PRAGMA synchronous')).synchronous,
+      foreignKeys: (await get<{ foreign_keys: number }>('PRAGMA foreign_keys')).foreign_keys,
+      busyTimeout: (await get<{ timeout: number }>('PRAGMA busy_timeout')).timeout,
+    };
+  }
+
+  async close(): Promise<void> {}
+}
