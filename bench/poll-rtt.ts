@@ -152,7 +152,8 @@ function conductorSocket(url: string, cookie: string, countId: number, n: number
   const sizes: Partial<MessageSizes> = {};
   let missingAnswers = 0;
 
-  socket.on('count:event', (e: CountEventDto) => {
+  socket.on('count:events', (list: CountEventDto[]) => list.forEach(onEvent));
+  function onEvent(e: CountEventDto) {
     if (seqs.last >= 0) {
       if (e.seq <= seqs.last) seqs.duplicated += 1;
       else if (e.seq > seqs.last + 1) seqs.lost += e.seq - seqs.last - 1;
@@ -175,7 +176,7 @@ function conductorSocket(url: string, cookie: string, countId: number, n: number
       else current.resolve(current.at ?? performance.now());
       current = null;
     }
-  });
+  }
 
   return {
     socket,

@@ -21,7 +21,8 @@ async function station(url: string, countId: number, code: string, cookie: strin
   sockets.push(socket);
   // Seqs are checked on the broadcasts only: the join's catch-up may overlap the first broadcasts by design.
   let lastSeq = -1;
-  socket.on('count:event', (e: CountEventDto) => {
+  socket.on('count:events', (list: CountEventDto[]) => list.forEach(onEvent));
+  function onEvent(e: CountEventDto) {
     if (lastSeq >= 0) {
       if (e.seq <= lastSeq) stats.duplicated += 1;
       else if (e.seq > lastSeq + 1) stats.lost += e.seq - lastSeq - 1;
@@ -40,7 +41,7 @@ async function station(url: string, countId: number, code: string, cookie: strin
         } else stats.answered += 1;
       })
       .catch(() => (stats.refused += 1));
-  });
+  }
   await new Promise<void>((resolve, reject) => {
     socket.once('connect', () => resolve());
     socket.once('connect_error', reject);

@@ -113,7 +113,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
   const countEvents = new CountEvents({ mailer: deps.mailer, appUrl: config.appUrl, log });
   const counts = new CountService({
     log: eventLog,
-    broadcast: (countId, event) => io?.to(countRoom(countId)).emit('count:event', event),
+    broadcast: (countId, events) => io?.to(countRoom(countId)).emit('count:events', events),
     onEvents: (count, events) => countEvents.handle(count, events),
     logError: log,
   });

@@ -43,6 +43,8 @@ interface LiveCount {
   inflight: Map<string, Promise<CountEventDto[]>>;
   /** The last append handed to the log: settles after everything before it. */
   tail: Promise<unknown>;
+  /** Committed events not yet broadcast. */
+  outbox: CountEventDto[];
   /** commandId -> the events that command appended, so a retry gets the first answer. */
   commands: Map<string, CountEventDto[]>;
   timer: NodeJS.Timeout | null;
@@ -71,8 +73,8 @@ export function eventDto(e: StoredEvent): CountEventDto {
 
 export interface CountServiceDeps {
   log: EventLog;
-  /** Sends one stored event to everyone watching the count. */
-  broadcast: (countId: number, event: CountEventDto) => void;
+  /** Sends stored events, in seq order, to everyone watching the count. */
+  broadcast: (countId: number, events: CountEventDto[]) => void;
   now?: () => number;
   /** Called with every batch of stored events after it is folded in (mail on a scrub, the list's status). */
   onEvents?: (count: { id: number; teamId: number; state: CountState }, events: CountEventDto[]) => void;
@@ -121,6 +123,7 @@ export class CountService {
           projected: state,
           inflight: new Map(),
           tail: Promise.resolve(),
+          outbox: [],
           commands,
           timer: null,
           chain: Promise.resolve(),
@@ -172,7 +175,7 @@ export class CountService {
             c.commands.set(commandId, events);
             c.inflight.delete(commandId);
           }
-          for (const e of events) this.deps.broadcast(c.id, e);
+          this.publish(c, events);
           try {
             this.deps.onEvents?.(c, events);
           } catch (error) {
@@ -192,6 +195,19 @@ export class CountService {
     c.tail = committed.catch(() => {});
     this.schedule(c);
     return committed;
+  }
+
+  /**
+   * Events committed in the same moment (one group commit answers many commands) go out as one message, on the
+   * next turn of the event loop, in seq order.
+   */
+  private publish(c: LiveCount, events: CountEventDto[]) {
+    c.outbox.push(...events);
+    if (c.outbox.length !== events.length) return;
+    setImmediate(() => {
+      const out = c.outbox.splice(0);
+      if (out.length) this.deps.broadcast(c.id, out);
+    });
   }
 
   /** The clock's own events up to now (steps reached, built-in holds, poll time-outs, T-0). */
@@ -252,6 +268,7 @@ export class CountService {
       projected: initialCountState(),
       inflight: new Map(),
       tail: Promise.resolve(),
+      outbox: [],
       commands: new Map(),
       timer: null,
       chain: Promise.resolve(),

@@ -4,7 +4,7 @@ import type { Ack } from '../../src/contract/socket';
 import { countRoom, type CountService } from '../counts/service';
 import { HttpError } from '../http/errors';
 import { stateDto } from '../routes/counts.routes';
-import { User } from '../models';
+import type { Request } from 'express';
 import type { HoldfireServer, HoldfireSocket } from './types';
 
 type Issue = { path: PropertyKey[]; message: string };
@@ -19,15 +19,16 @@ function answerError(ack: Ack<never>, error: unknown, log: (m: string, e?: unkno
 
 /**
  * A count over the socket: join (catch up from a seq, then receive every new event), leave, and commands,
- * which take the same path as POST /api/counts/:id/commands. The person is read afresh for every command, so a
- * role taken away or an account deactivated stops them at once.
+ * which take the same path as POST /api/counts/:id/commands. The person is the one the session held when the
+ * socket connected: a role change, a deactivation or a sign-out closes the socket (auth/session-ender.ts), so a
+ * socket never acts with roles its person no longer has, and no command waits for a database read.
  */
 export function registerCountHandlers(_io: HoldfireServer, socket: HoldfireSocket, counts: CountService, log: (m: string, e?: unknown) => void) {
   const joined = new Set<number>();
 
-  async function person() {
-    const u = await User.findByPk(socket.data.userId);
-    if (!u || !u.active) throw new HttpError(401, 'unauthenticated', 'Sign in again to go on.');
+  async function person(): Promise<Express.User> {
+    const u = (socket.request as Request).user;
+    if (!u || !u.active || u.id !== socket.data.userId) throw new HttpError(401, 'unauthenticated', 'Sign in again to go on.');
     return u;
   }
 

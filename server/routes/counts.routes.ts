@@ -23,7 +23,6 @@ import { stateAt } from '../../src/domain/count/reduce';
 import { tAt, type CountState } from '../../src/domain/count/state';
 import type { ResolvedCaution } from '../../src/domain/procedures/cautions';
 import { neededStations } from '../../src/domain/procedures/manning';
-import { PROPELLANTS } from '../../src/domain/propellants/library';
 import type { CountService } from '../counts/service';
 import { badRequest, conflict, HttpError, notFound } from '../http/errors';
 import { route } from '../http/route';
@@ -155,16 +154,11 @@ export function countRoutes({ counts }: { counts: CountService }) {
         });
         if (problems.length) throw badRequest('Some phases are not in this revision.', 'validation_failed', problems);
 
-        // The cautions as signed at release, and each step's PPE: its station's default and its propellants'.
+        // The cautions as signed at release (a propellant's PPE is among them, as a note), and the station's own PPE.
         const signed: Record<string, ResolvedCaution[]> = rev.releasedCautions ?? currentCautions(rev.phases, await cautionContext(teamId));
-        const ctx = await cautionContext(teamId);
         const phases: PhaseWithCautions[] = rev.phases.map((ph) => ({
           ...ph,
-          steps: ph.steps.map((st) => ({
-            ...st,
-            cautions: signed[st.key] ?? [],
-            ppe: [...new Set([...(known.get(st.station)?.defaultPpe ?? []), ...st.propellants.flatMap((id) => ctx.propellants.get(id)?.ppe ?? PROPELLANTS[id]?.ppe.map((x) => (typeof x === 'string' ? x : x.text)) ?? [])])],
-          })),
+          steps: ph.steps.map((st) => ({ ...st, cautions: signed[st.key] ?? [], ppe: [...(known.get(st.station)?.defaultPpe ?? [])] })),
         }));
         const steps = buildPlanSteps(phases);
         const windowEnd = body.windowEnd ? Date.parse(body.windowEnd) : null;

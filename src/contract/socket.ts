@@ -23,8 +23,11 @@ export interface ClientToServerEvents {
 
 export interface ServerToClientEvents {
   'session:ended': (payload: { reason: string }) => void;
-  /** One stored event of a count this socket has joined, in seq order. */
-  'count:event': (event: CountEventDto) => void;
+  /**
+   * Stored events of a count this socket has joined, in seq order: what one commit (or several at the same
+   * moment) stored, sent as one message so a poll's answers do not cost a message per answer per phone.
+   */
+  'count:events': (events: CountEventDto[]) => void;
 }
 
 export interface SocketData {

@@ -1,7 +1,7 @@
 /**
  * A fake socket for the count screens: the same on/off/emit-with-ack surface the page uses, answering
  * count:join from a list of events and clock:sync with the client's own time, so a test drives the page by
- * pushing count:event facts and by dropping and restoring the connection.
+ * pushing count:events facts and by dropping and restoring the connection.
  */
 import type { CountEventDto } from '../../src/contract/count';
 import type { CountEventPayloads, CountEventType } from '../../src/domain/count/events';
@@ -62,7 +62,7 @@ export class FakeSocket {
   /** A fact from the server: stored (so a re-join hands it out again) and pushed to the page. */
   push(e: CountEventDto) {
     if (!this.events.some((x) => x.seq === e.seq)) this.events.push(e);
-    this.fire('count:event', e);
+    this.fire('count:events', [e]);
   }
 
   drop() {

@@ -51,11 +51,14 @@ export async function connected(socket: Socket): Promise<void> {
   });
 }
 
-/** Collects every count:event a socket receives, and waits for one that matches. */
+/** Collects every event (count:events) a socket receives, and waits for one that matches. */
 export function eventRecorder(socket: Socket) {
   const events: { seq: number; type: string; payload: Record<string, unknown>; station: string | null }[] = [];
   const waiters: { match: (e: (typeof events)[number]) => boolean; resolve: (e: (typeof events)[number]) => void }[] = [];
-  socket.on('count:event', (e) => {
+  socket.on('count:events', (list) => {
+    for (const e of list) record(e);
+  });
+  function record(e: (typeof events)[number]) {
     events.push(e);
     for (const w of [...waiters]) {
       if (w.match(e)) {
@@ -63,7 +66,7 @@ export function eventRecorder(socket: Socket) {
         w.resolve(e);
       }
     }
-  });
+  }
   return {
     events,
     waitFor(match: (e: (typeof events)[number]) => boolean, timeoutMs = 10_000) {

@@ -33,7 +33,7 @@ export function BigClock({ t, size = 'huge' }: { t: number; size?: 'huge' | 'lar
     <p
       role="timer"
       aria-label={`Count time ${text}`}
-      className={`font-mono font-bold leading-none tracking-tight text-ink tabular-nums ${size === 'huge' ? 'text-[clamp(2.25rem,14vw,3.75rem)] sm:text-8xl lg:text-9xl' : 'text-[clamp(2rem,12vw,3rem)] sm:text-7xl'}`}
+      className={`whitespace-nowrap font-mono font-bold leading-none tracking-tight text-ink tabular-nums ${size === 'huge' ? 'text-[clamp(2.25rem,14vw,3.75rem)] sm:text-7xl xl:text-8xl' : 'text-[clamp(2rem,12vw,3rem)] sm:text-6xl'}`}
     >
       {text}
     </p>

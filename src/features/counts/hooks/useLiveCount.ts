@@ -201,10 +201,11 @@ export function useLiveCount(countId: number, initial: CountState | undefined) {
       publishQueue();
       setConnection(isOnline() ? 'reconnecting' : 'offline');
     };
-    const onEvent = (e: CountEventDto) => {
-      if (e.countId !== countId) return;
-      if (joinedRef.current) fold([e]);
-      else bufferRef.current.push(e);
+    const onEvents = (list: CountEventDto[]) => {
+      const mine = list.filter((e) => e.countId === countId);
+      if (mine.length === 0) return;
+      if (joinedRef.current) fold(mine);
+      else bufferRef.current.push(...mine);
     };
     const onEnded = ({ reason }: { reason: string }) => {
       closeSocket();
@@ -217,7 +218,7 @@ export function useLiveCount(countId: number, initial: CountState | undefined) {
     socket.on('connect', onConnect);
     socket.on('disconnect', onDrop);
     socket.on('connect_error', onDrop);
-    socket.on('count:event', onEvent);
+    socket.on('count:events', onEvents);
     socket.on('session:ended', onEnded);
     window.addEventListener('offline', onOffline);
     window.addEventListener('online', onOnline);
@@ -230,7 +231,7 @@ export function useLiveCount(countId: number, initial: CountState | undefined) {
       socket.off('connect', onConnect);
       socket.off('disconnect', onDrop);
       socket.off('connect_error', onDrop);
-      socket.off('count:event', onEvent);
+      socket.off('count:events', onEvents);
       socket.off('session:ended', onEnded);
       window.removeEventListener('offline', onOffline);
       window.removeEventListener('online', onOnline);
