@@ -74,7 +74,7 @@ test.describe('test conductor', () => {
   test('drags a step into place with the mouse and with the keyboard, saves, and the order survives a reload', async ({ page, consoleErrors }) => {
     void consoleErrors;
     await page.goto(`/procedures/${procedureId}/revisions/1/edit`);
-    await expect(page.getByRole('heading', { level: 1 })).toHaveText('Edit revision 1');
+    await expect(page.getByRole('heading', { level: 1 })).toHaveText('Edit revision 1', { timeout: 20_000 }); // a 60-step editor on a busy machine
     const start = await stepOrder(page, 'Pad set-up');
     expect(start.slice(0, 4)).toEqual(['brief', 'headcount-1', 'wind', 'flag-up']);
 
@@ -109,7 +109,7 @@ test.describe('test conductor', () => {
     await page.getByRole('button', { name: 'Save draft' }).click();
     await expect(page.getByText('Draft saved')).toBeVisible();
     await page.reload();
-    await expect(page.getByRole('heading', { level: 1 })).toHaveText('Edit revision 1');
+    await expect(page.getByRole('heading', { level: 1 })).toHaveText('Edit revision 1', { timeout: 20_000 }); // a 60-step editor on a busy machine
     expect((await stepOrder(page, 'Pad set-up')).slice(0, 4)).toEqual(['brief', 'flag-up', 'headcount-1', 'wind']);
     const saved = await (await page.request.get(`/api/procedures/${procedureId}/revisions/1`)).json();
     expect(saved.phases[0].steps.slice(0, 4).map((s: { key: string }) => s.key)).toEqual(['brief', 'flag-up', 'headcount-1', 'wind']);

@@ -122,7 +122,9 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...authRoutes({
       passport,
       limiters: signInLimiters(deps.signInLimits ?? DEFAULT_SIGN_IN_LIMITS),
-      generateCsrfToken: (req: Request) => generateToken(req, true),
+      // One token per session, kept until the session changes (sign-in and sign-out make a new session): a second
+      // tab or a second client of the same session fetching a token must not void the first one's.
+      generateCsrfToken: (req: Request) => generateToken(req),
       sessions,
     }),
     ...setupRoutes,

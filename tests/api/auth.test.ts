@@ -130,6 +130,14 @@ describe('CSRF', () => {
     expect(res.body.code).toBe('csrf_invalid');
     expect((await User.findOne({ where: { email: DEMO.conductor } }))!.name).toBe('Marek Lindqvist');
   });
+
+  it('a second tab of the same session fetching a token does not void the first tab’s', async () => {
+    const c = await t.client(DEMO.safety);
+    const first = c.csrf;
+    const second = (await c.agent.get('/api/auth/csrf').expect(200)).body.csrfToken;
+    expect(second).toBe(first);
+    await c.agent.patch('/api/profile').set('X-CSRF-Token', first).send({ name: 'Priya Halloran' }).expect(200);
+  });
 });
 
 describe('sessions', () => {

@@ -7,7 +7,7 @@ import { Glyph } from './Glyph';
  * line; then its title, name, type and size, and Open (images, PDF) and Download links. `children` go under
  * the details (who added it, a note). The thumbnail is dimmed at night (.hf-evidence-image, styles.css).
  */
-export function UploadedFile({ file, title, children }: { file: UploadDto; title: string; children?: ReactNode }) {
+export function UploadedFile({ file, title, imageWord = 'Image', children }: { file: UploadDto; title: string; imageWord?: string; children?: ReactNode }) {
   const type = uploadTypeOf(file.mediaType)?.label ?? file.mediaType;
   const image = isImageType(file.mediaType);
   const opensInBrowser = image || file.mediaType === 'application/pdf';
@@ -17,7 +17,7 @@ export function UploadedFile({ file, title, children }: { file: UploadDto; title
         <a href={file.url} target="_blank" rel="noopener" className="shrink-0 self-start">
           <img
             src={file.url}
-            alt={`Image: ${title}`}
+            alt={`${imageWord}: ${title}`}
             loading="lazy"
             className="hf-evidence-image block h-auto max-h-40 w-auto max-w-full rounded-md border-2 border-line-soft bg-sunken object-contain sm:max-w-56"
           />

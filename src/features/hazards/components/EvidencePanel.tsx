@@ -1,11 +1,11 @@
 import { useId, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { EvidenceDto, MitigationDto } from '../../../contract/hazards';
-import { formatBytes, isImageType, UPLOAD_MAX_BYTES, UPLOAD_MAX_IN_WORDS, UPLOAD_TYPES, UPLOAD_TYPES_IN_WORDS, uploadTypeOf } from '../../../contract/uploads';
+import { formatBytes, UPLOAD_MAX_BYTES, UPLOAD_MAX_IN_WORDS, UPLOAD_TYPES, UPLOAD_TYPES_IN_WORDS } from '../../../contract/uploads';
 import { Button } from '../../../components/ui/Button';
 import { FieldError, TextField } from '../../../components/ui/Field';
 import { Form, FormActions, FormError } from '../../../components/ui/Form';
-import { Glyph } from '../../../components/ui/Glyph';
+import { UploadedFile } from '../../../components/ui/UploadedFile';
 import { Notice } from '../../../components/ui/Notice';
 import { Time } from '../../../components/ui/Time';
 import { errorMessage, isApiError } from '../../../lib/api';
@@ -45,44 +45,12 @@ function Added({ ev }: { ev: EvidenceDto }) {
 }
 
 function FileEvidence({ ev }: { ev: EvidenceDto }) {
-  const file = ev.file!;
-  const type = uploadTypeOf(file.mediaType)?.label ?? file.mediaType;
-  const image = isImageType(file.mediaType);
-  const opensInBrowser = image || file.mediaType === 'application/pdf';
   return (
-    <div className="flex min-w-0 flex-col gap-2 sm:flex-row sm:items-start">
-      {image ? (
-        <a href={file.url} target="_blank" rel="noopener" className="shrink-0 self-start">
-          <img
-            src={file.url}
-            alt={`Photo: ${ev.label}`}
-            loading="lazy"
-            className="hf-evidence-image block h-auto max-h-40 w-auto max-w-full rounded-md border-2 border-line-soft bg-sunken object-contain sm:max-w-56"
-          />
-        </a>
-      ) : (
-        <Glyph shape="square" className="mt-1 size-5 shrink-0 text-ink-muted" />
-      )}
-      <div className="min-w-0">
-        <p className="font-bold [overflow-wrap:anywhere]">{ev.label}</p>
-        <p className="text-sm [overflow-wrap:anywhere]">
-          <span>{file.name}</span> · {type}, {formatBytes(file.sizeBytes)}
-        </p>
-        <p className="text-sm text-ink-muted">
-          File, <Added ev={ev} />
-        </p>
-        <p className="mt-1 flex flex-wrap gap-x-4 gap-y-1">
-          {opensInBrowser ? (
-            <a href={file.url} target="_blank" rel="noopener">
-              Open <span className="sr-only">{file.name} in a new tab</span>
-            </a>
-          ) : null}
-          <a href={file.url} download={file.name}>
-            Download <span className="sr-only">{file.name}</span>
-          </a>
-        </p>
-      </div>
-    </div>
+    <UploadedFile file={ev.file!} title={ev.label} imageWord="Photo">
+      <p className="text-sm text-ink-muted">
+        File, <Added ev={ev} />
+      </p>
+    </UploadedFile>
   );
 }
 
