@@ -1,4 +1,4 @@
-/** Labelled select and text area (shared copies of the hazard feature's; new features use these). */
+/** Labelled select and text area, shared by every feature. */
 import { useId, type ComponentPropsWithRef } from 'react';
 import { FieldError } from './Field';
 

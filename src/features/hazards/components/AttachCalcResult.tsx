@@ -12,7 +12,7 @@ import { errorMessage, isApiError } from '../../../lib/api';
 import { useAttachCalcEvidence } from '../api/attachCalcEvidence';
 import { useHazards } from '../api/listHazards';
 import { CALC_TITLES } from '../lib/calcEvidence';
-import { SelectField } from './SelectField';
+import { SelectField } from '../../../components/ui/SelectField';
 
 interface Values {
   hazardId: string;

@@ -12,7 +12,7 @@ import { useRiskMatrices } from '../api/listRiskMatrices';
 import { levelIn, levelsWorstFirst, matrixCatalogue, type MatrixView } from '../lib/risk';
 import { ListEditor } from './ListEditor';
 import { RiskBadge } from './RiskBadge';
-import { SelectField, TextAreaField } from './SelectField';
+import { SelectField, TextAreaField } from '../../../components/ui/SelectField';
 
 const list = (what: string) => z.array(z.string().trim().max(500, 'Use at most 500 characters')).max(20, `List at most 20 ${what}`);
 

@@ -15,7 +15,7 @@ import { useRemoveMitigation } from '../api/removeMitigation';
 import { useUpdateMitigation } from '../api/updateMitigation';
 import { VERIFICATION_LABELS } from '../lib/labels';
 import { EvidencePanel } from './EvidencePanel';
-import { SelectField, TextAreaField } from './SelectField';
+import { SelectField, TextAreaField } from '../../../components/ui/SelectField';
 
 const kindOptions = MITIGATION_KINDS.map((k) => ({ value: k, label: `${MITIGATION_KIND_INFO[k].precedence}. ${MITIGATION_KIND_INFO[k].label}` }));
 const verificationOptions = VERIFICATION_STATUSES.map((v) => ({ value: v, label: VERIFICATION_LABELS[v] }));

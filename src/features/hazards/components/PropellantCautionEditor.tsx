@@ -8,7 +8,7 @@ import { Form, FormActions, FormError } from '../../../components/ui/Form';
 import type { PropellantDto } from '../../../contract/hazards';
 import { errorMessage, isApiError } from '../../../lib/api';
 import { propellantCautionsInputSchema, useUpdatePropellantCautions, type PropellantCautionsInput } from '../api/updatePropellantCautions';
-import { SelectField, TextAreaField } from './SelectField';
+import { SelectField, TextAreaField } from '../../../components/ui/SelectField';
 
 type Values = PropellantCautionsInput;
 type Output = z.output<typeof propellantCautionsInputSchema>;

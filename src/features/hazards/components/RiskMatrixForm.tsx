@@ -24,7 +24,7 @@ import {
 import { levelClass } from '../lib/risk';
 import { LevelGlyph } from './LevelGlyph';
 import { RiskBadge } from './RiskBadge';
-import { SelectField } from './SelectField';
+import { SelectField } from '../../../components/ui/SelectField';
 
 const GLYPH_WORDS: Record<(typeof LEVEL_GLYPHS)[number], string> = {
   octagon: 'Octagon',
