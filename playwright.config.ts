@@ -52,6 +52,8 @@ export default defineConfig({
       HOLDFIRE_SEED: 'demo',
       APP_URL: baseURL,
       NODE_ENV: 'test',
+      // As `npm start` sets it: SQLite and file work share libuv's pool, 4 threads by default (DEVELOPERS.md).
+      UV_THREADPOOL_SIZE: '16',
     },
   },
 });

@@ -152,7 +152,7 @@ test.describe('test conductor', () => {
     await form.getByLabel('Caption (optional)').fill(photoCaption);
     await form.getByLabel('Attach to').selectOption('walkdown');
     await form.getByRole('button', { name: 'Attach file' }).click();
-    await expect(page.getByText(`Added “${photoCaption}”.`)).toBeVisible();
+    await expect(page.getByText(`Added “${photoCaption}”.`)).toBeVisible({ timeout: 15_000 });
 
     const img = page.locator('[data-step-key="walkdown"]').getByRole('img', { name: `Image: ${photoCaption}` });
     await img.scrollIntoViewIfNeeded(); // it loads lazily

@@ -9,6 +9,7 @@ import helmet from 'helmet';
 import { Server } from 'socket.io';
 import { createPassport } from './auth/passport';
 import { createSessionEnder, sessionRoom, userRoom } from './auth/session-ender';
+import { throttleTouch } from './auth/session-touch';
 import { DEFAULT_SIGN_IN_LIMITS, signInLimiters } from './auth/rate-limit';
 import type { AppDeps } from './deps';
 import { createErrorHandler, HttpError } from './http/errors';
@@ -86,7 +87,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
   app.use(express.json({ limit: '200kb' }));
 
   const SequelizeStore = connectSessionSequelize(session.Store);
-  const store = new SequelizeStore({ db: deps.sequelize, table: 'Session', checkExpirationInterval: 15 * 60 * 1000 });
+  const store = throttleTouch(new SequelizeStore({ db: deps.sequelize, table: 'Session', checkExpirationInterval: 15 * 60 * 1000 }));
   const sessionMiddleware = session({
     name: 'holdfire.sid',
     secret: config.sessionSecret,
@@ -107,7 +108,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
 
   const sessions = createSessionEnder();
   const uploads = createUploadStore(config.dataDir, log);
-  const eventLog = new EventLog({ sequelize: deps.sequelize });
+  const eventLog = new EventLog({ sequelize: deps.sequelize, busyTimeoutMs: config.dbBusyTimeoutMs });
   // The socket server is made below; events are only broadcast once it exists (a count cannot be reached before).
   let io: HoldfireServer | undefined;
   const countEvents = new CountEvents({ mailer: deps.mailer, appUrl: config.appUrl, log });

@@ -17,6 +17,7 @@ const envSchema = z.object({
   APP_URL: z.url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' }).optional(),
   HOLDFIRE_SEED: z.enum(['demo', 'none']).default('demo'),
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  HOLDFIRE_DB_BUSY_TIMEOUT_MS: z.coerce.number().int().min(10).max(60_000).default(5000),
 });
 
 export interface Config {
@@ -33,6 +34,8 @@ export interface Config {
   secureCookies: boolean;
   seed: 'demo' | 'none';
   nodeEnv: 'development' | 'production' | 'test';
+  /** How long a database write waits for another writer's lock before it gives up (SQLITE_BUSY). */
+  dbBusyTimeoutMs: number;
 }
 
 export class ConfigError extends Error {}
@@ -67,6 +70,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     secureCookies: appUrl.startsWith('https:'),
     seed: e.HOLDFIRE_SEED,
     nodeEnv: e.NODE_ENV,
+    dbBusyTimeoutMs: e.HOLDFIRE_DB_BUSY_TIMEOUT_MS,
   };
 }
 

@@ -78,7 +78,10 @@ export class SqliteLogWriter implements LogWriter {
   private opened: Promise<{ db: sqlite3.Database; insert: sqlite3.Statement }> | null = null;
   private closed = false;
 
-  constructor(private readonly file: string) {}
+  constructor(
+    private readonly file: string,
+    private readonly busyTimeoutMs = BUSY_TIMEOUT_MS,
+  ) {}
 
   private connection() {
     if (this.closed) return Promise.reject(new Error('The event log is closed.'));
@@ -91,7 +94,7 @@ export class SqliteLogWriter implements LogWriter {
       const d: sqlite3.Database = new sqlite3.Database(this.file, sqlite3.OPEN_READWRITE, (error) => (error ? reject(error) : resolve(d)));
     });
     try {
-      db.configure('busyTimeout', BUSY_TIMEOUT_MS);
+      db.configure('busyTimeout', this.busyTimeoutMs);
       // WAL is the file's mode already (server/db/index.ts); FULL syncs the WAL at every commit, so an
       // acknowledged event survives a power cut; foreign keys as on Sequelize's connections.
       await run(db, 'PRAGMA journal_mode = WAL');

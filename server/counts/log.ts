@@ -63,6 +63,23 @@ export interface EventLogDeps {
   sequelize: Sequelize;
   /** Server time in epoch milliseconds; tests pass a fixed clock. */
   now?: () => number;
+  /** How long the write connection waits for another writer's lock before SQLITE_BUSY (tests shorten it). */
+  busyTimeoutMs?: number;
+  /** Waits before each retry of a group that met SQLITE_BUSY; its length is the number of retries. */
+  busyRetryDelaysMs?: readonly number[];
+}
+
+/**
+ * A group that still finds the database locked after the busy timeout is tried again after these waits: on a
+ * machine whose disk is slow, a stream of other writers (sessions, uploads) can keep the lock for longer than
+ * one busy timeout, and losing a count's event to that would stop its clock.
+ */
+export const BUSY_RETRY_DELAYS_MS = [100, 400, 1000] as const;
+
+function isBusy(error: unknown): boolean {
+  const code = (error as { code?: unknown } | null)?.code;
+  const parent = (error as { parent?: { code?: unknown } } | null)?.parent?.code;
+  return code === 'SQLITE_BUSY' || parent === 'SQLITE_BUSY';
 }
 
 /**
@@ -81,12 +98,14 @@ export class EventLog {
   /** Last seq and hash per count, so a commit need not read them back. Only committed values go here. */
   private readonly tails = new Map<number, Tail>();
   private committed = 0;
+  private readonly busyRetryDelays: readonly number[];
 
   constructor(deps: EventLogDeps) {
     const file = sqliteFile(deps.sequelize);
     // An in-memory database lives on Sequelize's one connection: a second connection would open another, empty one.
-    this.writer = file === null ? new SequelizeLogWriter(deps.sequelize) : new SqliteLogWriter(file);
+    this.writer = file === null ? new SequelizeLogWriter(deps.sequelize) : new SqliteLogWriter(file, deps.busyTimeoutMs);
     this.now = deps.now ?? Date.now;
+    this.busyRetryDelays = deps.busyRetryDelaysMs ?? BUSY_RETRY_DELAYS_MS;
   }
 
   /** Waits for the appends already queued, then closes the log's connection; later appends are refused. */
@@ -172,7 +191,9 @@ export class EventLog {
     const newTails = new Map<number, Tail>();
     const outcomes = new Map<Pending, StoredEvent[] | EventLogError>();
     try {
-      await this.writer.transaction(async (tx) => {
+      await this.transactionRetryingBusy(async (tx) => {
+        newTails.clear();
+        outcomes.clear();
         const known = await this.loadTails(countIds, tx);
         const earlier = await storedCommands(group, tx);
         const rows: StoredEvent[] = [];
@@ -217,6 +238,12 @@ export class EventLog {
       // Nothing of the group is stored; forget the tails so the next commit reads them from the database.
       for (const countId of countIds) this.tails.delete(countId);
       for (const pending of group) pending.reject(error);
+      // Appends to the same counts queued while this group ran were decided by callers who took the failed
+      // events as done: storing them would put facts in the log that follow from events it does not hold.
+      const failed = new Set(countIds);
+      const stale = this.queue.filter((p) => failed.has(p.countId));
+      this.queue = this.queue.filter((p) => !failed.has(p.countId));
+      for (const pending of stale) pending.reject(error);
       return;
     }
     this.committed += 1;
@@ -225,6 +252,20 @@ export class EventLog {
       const outcome = outcomes.get(pending);
       if (outcome instanceof Error || outcome === undefined) pending.reject(outcome ?? new Error('append lost its outcome'));
       else pending.resolve(outcome);
+    }
+  }
+
+  /** One write transaction, tried again after the configured waits while SQLite answers SQLITE_BUSY. */
+  private async transactionRetryingBusy(work: (tx: LogTransaction) => Promise<void>): Promise<void> {
+    for (let attempt = 0; ; attempt++) {
+      try {
+        await this.writer.transaction(work);
+        return;
+      } catch (error) {
+        const delay = this.busyRetryDelays[attempt];
+        if (!isBusy(error) || delay === undefined) throw error;
+        await new Promise((resolve) => setTimeout(resolve, delay));
+      }
     }
   }
 

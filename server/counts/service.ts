@@ -7,7 +7,8 @@
  * has been decided and handed to the log but not yet committed. A decision therefore never waits for the
  * previous one's disk write, and answers that arrive together are committed together (the log's group commit);
  * nobody hears of an event before it is on disk. If a commit fails, the count is dropped from memory and read
- * back from its log on the next use.
+ * back from its log shortly after (or on its next use, if sooner), so its clock goes on without anyone pressing
+ * anything; the events the clock made due meanwhile are appended with their own instants.
  */
 import type { CountCommand } from '../../src/domain/count/commands';
 import { decide } from '../../src/domain/count/commands';
@@ -24,6 +25,8 @@ import type { EventLog, StoredEvent } from './log';
 
 /** How long a station's last connection may be gone before the count shows it as lost. */
 export const STATION_GRACE_MS = 5000;
+/** How long after a failed commit a count is read back from its log. */
+export const REVIVE_AFTER_MS = 1000;
 
 export interface CountActor {
   id: number;
@@ -79,11 +82,15 @@ export interface CountServiceDeps {
   /** Called with every batch of stored events after it is folded in (mail on a scrub, the list's status). */
   onEvents?: (count: { id: number; teamId: number; state: CountState }, events: CountEventDto[]) => void;
   logError?: (message: string, error?: unknown) => void;
+  /** After a failed commit, the wait before the count is read back from its log (tests shorten it). */
+  reviveAfterMs?: number;
 }
 
 export class CountService {
   private readonly counts = new Map<number, LiveCount>();
   private readonly loading = new Map<number, Promise<LiveCount>>();
+  /** The open sockets of a count dropped after a failed commit, handed to it when it is read back. */
+  private readonly orphanPresence = new Map<number, Map<string, Set<string>>>();
   private readonly now: () => number;
   private closed = false;
 
@@ -116,6 +123,8 @@ export class CountService {
           commands.set(e.commandId, list);
         });
         const state = replay(events as unknown as CountEvent[]);
+        const present = this.orphanPresence.get(countId) ?? new Map<string, Set<string>>();
+        this.orphanPresence.delete(countId);
         const live: LiveCount = {
           id: countId,
           teamId: row.teamId as number,
@@ -127,11 +136,16 @@ export class CountService {
           commands,
           timer: null,
           chain: Promise.resolve(),
-          present: new Map(),
+          present,
           lostTimers: new Map(),
         };
         this.counts.set(countId, live);
         this.schedule(live);
+        // A station the log shows connected with no socket here (after a restart, or one that left while the
+        // count was out of memory) shows as lost unless it comes back within the grace time.
+        for (const [station, s] of Object.entries(state.stations)) {
+          if (s.presence === 'connected' && (present.get(station)?.size ?? 0) === 0) this.armLost(live, station);
+        }
         return live;
       })();
       this.loading.set(countId, pending);
@@ -184,10 +198,9 @@ export class CountService {
           return events;
         },
         (error: unknown) => {
-          // The projection now runs ahead of the log: forget this count and read it back from the log next time.
-          if (this.counts.get(c.id) === c) this.counts.delete(c.id);
-          if (c.timer) clearTimeout(c.timer);
+          // The projection now runs ahead of the log: forget this count and read it back from the log.
           if (commandId) c.inflight.delete(commandId);
+          this.drop(c, error);
           throw error;
         },
       );
@@ -195,6 +208,34 @@ export class CountService {
     c.tail = committed.catch(() => {});
     this.schedule(c);
     return committed;
+  }
+
+  /**
+   * Forgets a count whose commit failed (its projection runs ahead of its log) and reads it back from the log
+   * after REVIVE_AFTER_MS, unless its next use has done so already. Its timers stop; its open sockets carry over.
+   */
+  private drop(c: LiveCount, error: unknown): void {
+    if (this.counts.get(c.id) !== c) return; // already dropped by an earlier failure
+    this.counts.delete(c.id);
+    if (c.timer) clearTimeout(c.timer);
+    c.timer = null;
+    for (const t of c.lostTimers.values()) clearTimeout(t);
+    c.lostTimers.clear();
+    this.orphanPresence.set(c.id, c.present);
+    this.deps.logError?.(`count ${c.id}: a commit failed; reading the count back from its log`, error);
+    this.revive(c.id);
+  }
+
+  private revive(countId: number): void {
+    if (this.closed) return;
+    const timer = setTimeout(() => {
+      if (this.closed || this.counts.has(countId)) return;
+      this.load(countId).catch((error) => {
+        this.deps.logError?.(`count ${countId}: reading it back failed; trying again`, error);
+        this.revive(countId);
+      });
+    }, this.deps.reviveAfterMs ?? REVIVE_AFTER_MS);
+    timer.unref?.();
   }
 
   /**
@@ -218,7 +259,7 @@ export class CountService {
   private schedule(c: LiveCount): void {
     if (c.timer) clearTimeout(c.timer);
     c.timer = null;
-    if (this.closed) return;
+    if (this.closed || this.counts.get(c.id) !== c) return;
     const at = nextDueAt(c.projected);
     if (at === null) return;
     // setTimeout holds at most about 24.8 days; a count's next moment is never that far, but stay safe.
@@ -239,11 +280,13 @@ export class CountService {
   async command(teamId: number, countId: number, actor: CountActor, command: CountCommand & { commandId?: string }): Promise<CountEventDto[]> {
     const c = await this.get(teamId, countId);
     // The queue only decides and hands over; the answer waits for the commit outside it.
-    const committed = await this.enqueue(c, async () => {
+    const committed = await this.enqueue(c, async (): Promise<{ done: Promise<CountEventDto[]> }> => {
+      // Dropped after a failed commit while this waited: decide on the count as its log has it.
+      if (this.counts.get(c.id) !== c) return { done: this.command(teamId, countId, actor, command) };
       const { commandId, ...cmd } = command;
       if (commandId) {
         const before = c.commands.get(commandId) ?? c.inflight.get(commandId);
-        if (before) return { done: before };
+        if (before) return { done: Promise.resolve(before) };
       }
       void this.catchUp(c).catch(() => {});
       const decision = decide(c.projected, cmd as CountCommand, {
@@ -314,7 +357,12 @@ export class CountService {
   async connect(c: LiveCount, socketId: string, userId: number): Promise<void> {
     const stations = mannedStations(c.state, userId);
     if (!stations.length) return;
-    const done = await this.enqueue(c, async () => {
+    const done = await this.enqueue(c, async (): Promise<unknown> => {
+      if (this.counts.get(c.id) !== c) {
+        // Dropped after a failed commit while this waited: mark the station on the count as read back.
+        const fresh = await this.load(c.id);
+        return fresh ? this.connect(fresh, socketId, userId) : undefined;
+      }
       const drafts: EventDraft[] = [];
       for (const station of stations) {
         const set = c.present.get(station) ?? new Set<string>();
@@ -339,18 +387,24 @@ export class CountService {
     const c = this.counts.get(countId);
     if (!c) return;
     for (const [station, set] of c.present) {
-      if (!set.delete(socketId) || set.size > 0 || c.lostTimers.has(station) || this.closed) continue;
-      const timer = setTimeout(() => {
-        c.lostTimers.delete(station);
-        if ((c.present.get(station)?.size ?? 0) > 0) return;
-        void this.enqueue(c, async () => {
-          if ((c.present.get(station)?.size ?? 0) > 0 || c.projected.stations[station]?.presence !== 'connected') return;
-          await this.submit(c, [{ type: 'station:lost', payload: { station }, actor: null, station } as EventDraft]);
-        }).catch((error) => this.deps.logError?.(`count ${c.id}: presence failed`, error));
-      }, STATION_GRACE_MS);
-      timer.unref?.();
-      c.lostTimers.set(station, timer);
+      if (!set.delete(socketId) || set.size > 0) continue;
+      this.armLost(c, station);
     }
+  }
+
+  /** The station shows as lost if no connection of it is back within STATION_GRACE_MS. */
+  private armLost(c: LiveCount, station: string): void {
+    if (c.lostTimers.has(station) || this.closed) return;
+    const timer = setTimeout(() => {
+      c.lostTimers.delete(station);
+      if ((c.present.get(station)?.size ?? 0) > 0 || this.counts.get(c.id) !== c) return;
+      void this.enqueue(c, async () => {
+        if ((c.present.get(station)?.size ?? 0) > 0 || c.projected.stations[station]?.presence !== 'connected') return;
+        await this.submit(c, [{ type: 'station:lost', payload: { station }, actor: null, station } as EventDraft]);
+      }).catch((error) => this.deps.logError?.(`count ${c.id}: presence failed`, error));
+    }, STATION_GRACE_MS);
+    timer.unref?.();
+    c.lostTimers.set(station, timer);
   }
 
   /** Stops every timer; nothing is appended after this. */

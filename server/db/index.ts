@@ -14,7 +14,8 @@ interface SqliteConnection {
  * turns them on per connection), and a busy timeout and synchronous=FULL on every connection, transactions' own
  * included (Sequelize opens a new connection per transaction), so a second writer waits instead of failing at once.
  */
-export async function openDatabase(config: Pick<Config, 'sqliteStorage'>): Promise<Sequelize> {
+export async function openDatabase(config: Pick<Config, 'sqliteStorage'> & Partial<Pick<Config, 'dbBusyTimeoutMs'>>): Promise<Sequelize> {
+  const busyTimeoutMs = config.dbBusyTimeoutMs ?? BUSY_TIMEOUT_MS;
   const sequelize = new Sequelize({
     dialect: 'sqlite',
     storage: config.sqliteStorage,
@@ -22,6 +23,9 @@ export async function openDatabase(config: Pick<Config, 'sqliteStorage'>): Promi
     define: { underscored: true },
     // IMMEDIATE takes the write lock at BEGIN: two transactions that read then write cannot both pass the read.
     transactionType: Transaction.TYPES.IMMEDIATE,
+    // Sequelize tries a query that met SQLITE_BUSY again, each try waiting up to the busy timeout: three tries
+    // at most (its default of five kept a request waiting 25 s behind a stuck writer), then the 503 of errors.ts.
+    retry: { max: 3, match: [/SQLITE_BUSY/] },
   });
   // The sqlite dialect has no afterConnect hook: wrap its getConnection to configure each new connection once.
   const manager = sequelize.connectionManager as unknown as { getConnection(options?: unknown): Promise<SqliteConnection> };
@@ -29,7 +33,7 @@ export async function openDatabase(config: Pick<Config, 'sqliteStorage'>): Promi
   manager.getConnection = async (options) => {
     const connection = await getConnection(options);
     if (!connection.holdfireConfigured) {
-      connection.configure('busyTimeout', BUSY_TIMEOUT_MS);
+      connection.configure('busyTimeout', busyTimeoutMs);
       // FULL syncs the WAL at every commit: with NORMAL a power cut can undo commits made since the last
       // checkpoint, and the count log acknowledges an event only once its commit is on disk. The pragma is
       // per connection, hence here and not once after opening.

@@ -32,6 +32,12 @@ interface BodyParserError {
   code?: string;
 }
 
+/** SQLite's "database is locked" after the busy timeout, as node-sqlite3 or Sequelize reports it. */
+export function isDatabaseBusy(error: unknown): boolean {
+  const e = error as { code?: unknown; parent?: { code?: unknown }; original?: { code?: unknown } } | null;
+  return e?.code === 'SQLITE_BUSY' || e?.parent?.code === 'SQLITE_BUSY' || e?.original?.code === 'SQLITE_BUSY';
+}
+
 export function createErrorHandler(log: (error: unknown) => void): ErrorRequestHandler {
   return (error, _req, res, _next) => {
     let status = 500;
@@ -58,6 +64,13 @@ export function createErrorHandler(log: (error: unknown) => void): ErrorRequestH
     } else if (typeof parserError?.status === 'number' && parserError.status >= 400 && parserError.status < 500) {
       status = parserError.status;
       body = { error: 'The request could not be read.', code: 'bad_request' };
+    } else if (isDatabaseBusy(error)) {
+      // Other writers held the database for longer than the busy timeout: nothing was written, and trying again
+      // shortly will most likely work. Logged, since it means the server is overloaded.
+      log(error);
+      status = 503;
+      res.setHeader('Retry-After', '2');
+      body = { error: 'The server is busy and saved nothing. Try again in a moment.', code: 'busy' };
     } else {
       log(error);
     }

@@ -7,6 +7,7 @@ import { fileURLToPath } from 'node:url';
 import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
 import { DEMO, sessionCookie } from '../helpers/api';
+import { connected, openSocket } from '../helpers/counts';
 
 /**
  * The whole server is killed with SIGKILL in the middle of a count and started again on the same database: every
@@ -62,9 +63,10 @@ async function signIn(base: string, email: string) {
   const agent = request.agent(base);
   let csrf = (await agent.get('/api/auth/csrf').expect(200)).body.csrfToken;
   const res = await agent.post('/api/auth/login').set('X-CSRF-Token', csrf).send({ email, password: 'kestrel-demo' }).expect(200);
-  expect(sessionCookie(res)).toBeTruthy();
+  const cookie = sessionCookie(res);
+  expect(cookie).toBeTruthy();
   csrf = (await agent.get('/api/auth/csrf').expect(200)).body.csrfToken;
-  return { agent, post: (url: string, body: object) => agent.post(url).set('X-CSRF-Token', csrf).send(body), get: (url: string) => agent.get(url) };
+  return { agent, cookie: cookie!, post: (url: string, body: object) => agent.post(url).set('X-CSRF-Token', csrf).send(body), get: (url: string) => agent.get(url) };
 }
 
 describe('the server killed mid-count', () => {
@@ -99,6 +101,12 @@ describe('the server killed mid-count', () => {
     keep(opened);
     keep(await prop.post(`/api/counts/${id}/commands`, { type: 'poll:answer', pollId: opened.body.events[0].payload.pollId, station: 'PROP', answer: 'go' }).expect(200));
     expect((await conductor.get(`/api/counts/${id}/state`).expect(200)).body.status).toBe('counting');
+    // PROP's phone is on the count when the server dies, and does not come back.
+    const phone = openSocket(base, prop.cookie);
+    await connected(phone);
+    await phone.timeout(5000).emitWithAck('count:join', { countId: id, sinceSeq: 0 });
+    const shown = async () => (await conductor.get(`/api/counts/${id}/state`).expect(200)).body.stations.PROP.presence;
+    expect(await shown()).toBe('connected');
 
     first.child.kill('SIGKILL');
     await new Promise((resolve) => first.child.once('exit', resolve));
@@ -115,6 +123,15 @@ describe('the server killed mid-count', () => {
     expect(state.status).toBe('holding');
     expect(state.clock.running).toBe(false);
     expect(state.hold).toMatchObject({ source: 'restart', reason: 'control server restarted' });
+    phone.disconnect();
+    // The log says PROP was connected; with no socket of it after the restart, it shows as lost after the grace time.
+    const lostBy = Date.now() + 15_000;
+    let presence = (await auditor.get(`/api/counts/${id}/state`).expect(200)).body.stations.PROP.presence;
+    while (presence !== 'lost' && Date.now() < lostBy) {
+      await new Promise((resolve) => setTimeout(resolve, 250));
+      presence = (await auditor.get(`/api/counts/${id}/state`).expect(200)).body.stations.PROP.presence;
+    }
+    expect(presence).toBe('lost');
     second.child.kill('SIGTERM');
     await new Promise((resolve) => second.child.once('exit', resolve));
   });

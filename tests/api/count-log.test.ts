@@ -232,6 +232,33 @@ describe('a failed group', () => {
     expect(await log.verify(count.id)).toEqual({ ok: true, count: 3 });
   });
 
+  it('also refuses the appends to that count queued while it ran: they were decided on events that were not stored', async () => {
+    const count = await createCount();
+    const other = await createCount('Other');
+    let armed = false;
+    let queuedMeanwhile: Promise<unknown>[] = [];
+    // now() is read inside the write transaction: appends made there are queued while the group runs.
+    const log = newLog({
+      now: () => {
+        if (armed) {
+          armed = false;
+          queuedMeanwhile = [log.append(count.id, [draft('decided-on-failed', {})]), log.append(other.id, [draft('unrelated', {})])];
+        }
+        return 1_000;
+      },
+    });
+    await log.append(count.id, [draft('count:created', {})]);
+    // A second log (its own connection) appends behind the first one's cached tail, so its next group fails.
+    await newLog().append(count.id, [draft('x', { by: 'other' })]);
+    armed = true;
+    await expect(log.append(count.id, [draft('a', {})])).rejects.toThrow(/UNIQUE/);
+    const [stale, unrelated] = await Promise.allSettled(queuedMeanwhile);
+    expect(stale!.status).toBe('rejected');
+    expect(unrelated!.status).toBe('fulfilled');
+    expect((await log.read(count.id)).map((e) => e.type)).toEqual(['count:created', 'x']);
+    expect((await log.append(count.id, [draft('after', {})]))[0]!.seq).toBe(3);
+  });
+
   it('after close, refuses appends; appends queued before close are committed', async () => {
     const log = new EventLog({ sequelize });
     const count = await createCount();
@@ -242,6 +269,50 @@ describe('a failed group', () => {
     expect(await rows(count.id)).toBe(1);
   });
 });
+
+describe('a database locked by another writer', () => {
+  it('is waited for: a group that meets SQLITE_BUSY is tried again and stored once the lock is free', async () => {
+    const count = await createCount();
+    const log = newLog({ busyTimeoutMs: 20, busyRetryDelaysMs: [50, 100, 200, 400] });
+    await log.append(count.id, [draft('count:created', {})]);
+    const other = await openRaw(dbFile);
+    await run(other, 'BEGIN IMMEDIATE');
+    const commitsBefore = log.commits;
+    const pending = log.append(count.id, [draft('while-locked', {})]);
+    await new Promise((resolve) => setTimeout(resolve, 250));
+    await run(other, 'COMMIT');
+    await new Promise<void>((resolve) => other.close(() => resolve()));
+    const [stored] = await pending;
+    expect(stored).toMatchObject({ seq: 2, type: 'while-locked' });
+    expect(log.commits).toBe(commitsBefore + 1);
+    expect(await log.verify(count.id)).toEqual({ ok: true, count: 2 });
+  });
+
+  it('fails the group once the retries are used up, storing nothing', async () => {
+    const count = await createCount();
+    const log = newLog({ busyTimeoutMs: 10, busyRetryDelaysMs: [10] });
+    await log.append(count.id, [draft('count:created', {})]);
+    const other = await openRaw(dbFile);
+    await run(other, 'BEGIN IMMEDIATE');
+    try {
+      await expect(log.append(count.id, [draft('never', {})])).rejects.toMatchObject({ code: 'SQLITE_BUSY' });
+    } finally {
+      await run(other, 'ROLLBACK');
+      await new Promise<void>((resolve) => other.close(() => resolve()));
+    }
+    expect((await log.read(count.id)).map((e) => e.type)).toEqual(['count:created']);
+  });
+});
+
+function openRaw(file: string): Promise<sqlite3.Database> {
+  return new Promise((resolve, reject) => {
+    const db: sqlite3.Database = new sqlite3.Database(file, (error) => (error ? reject(error) : resolve(db)));
+  });
+}
+
+function run(db: sqlite3.Database, sql: string): Promise<void> {
+  return new Promise((resolve, reject) => db.run(sql, (error: Error | null) => (error ? reject(error) : resolve())));
+}
 
 describe('idempotency by commandId', () => {
   it('a retry returns the stored events of the command and stores nothing twice', async () => {

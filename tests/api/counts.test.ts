@@ -1,8 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { User } from '../../server/models';
 import { DEMO } from '../helpers/api';
 import { startTestApp, waitForMail, type TestApp, type TestClient } from '../helpers/app';
-import { demoRevision, releasedShortProcedure } from '../helpers/counts';
+import { demoRevision, releasedShortProcedure, releasedTinyProcedure } from '../helpers/counts';
 
 let t: TestApp;
 let conductor: TestClient;
@@ -202,5 +202,34 @@ describe('scrub', () => {
     expect(mail.subject).toBe('Scrubbed: Run for scrubbing');
     expect(mail.text).toContain('Thunderstorm cell 15 km west');
     expect(mail.text).toContain('Category: Weather');
+  });
+});
+
+describe('a commit that fails', () => {
+  it('does not stop the clock: the count is read back from its log and the due events follow at their own instants', async () => {
+    const rev = await releasedTinyProcedure(conductor, safety);
+    const id = (await conductor.post('/api/counts', { ...rev, name: 'Failed commit' }).expect(201)).body.id as number;
+    const started = await command(conductor, id, { type: 'count:start' }).expect(200);
+    const startAt = (started.body.events as { type: string; at: number }[]).find((e) => e.type === 'count:started')!.at;
+    // The next append (the clock's step at T-2) fails as a full disk or an I/O error would make it.
+    const append = vi.spyOn(t.holdfire.eventLog, 'append').mockImplementationOnce(() => Promise.reject(new Error('disk I/O error (injected)')));
+    let failedAppends = 0;
+    try {
+      // Read the log itself: asking the API would load the count and hide a count that nobody brings back.
+      await until(async () => (await t.holdfire.eventLog.read(id)).some((e) => e.type === 't0:reached'), 15_000);
+    } finally {
+      failedAppends = append.mock.results.filter((r) => r.type === 'return').length;
+      append.mockRestore();
+    }
+    expect(failedAppends).toBeGreaterThan(0);
+    const events = (await auditor.get(`/api/counts/${id}/events`).expect(200)).body as { type: string; at: number; payload: { stepKey?: string } }[];
+    const plan = (await auditor.get(`/api/counts/${id}/state`).expect(200)).body.plan as { steps: { key: string; tSeconds: number }[] };
+    const pressurise = plan.steps.find((s) => s.tSeconds === -2)!.key;
+    const reached = events.find((e) => e.type === 'step:reached' && e.payload.stepKey === pressurise);
+    // Stored after the count was read back, but at the instant the clock passed T-2 and T-0.
+    expect(reached?.at).toBe(startAt + 1000);
+    expect(events.find((e) => e.type === 't0:reached')?.at).toBe(startAt + 3000);
+    expect(events.filter((e) => e.type === 'step:reached' && e.payload.stepKey === pressurise)).toHaveLength(1);
+    expect(await t.holdfire.eventLog.verify(id)).toEqual({ ok: true, count: events.length });
   });
 });

@@ -32,6 +32,28 @@ export async function releasedShortProcedure(conductor: TestClient, safety: Test
   return { procedureId: p.id as number, revisionId: rev.body.id as number };
 }
 
+/** A released procedure of three seconds: T-3 start the recorders (TC), T-2 pressurise (PROP), T-0 fire (TC). */
+export async function releasedTinyProcedure(conductor: TestClient, safety: TestClient, name = `Tiny count ${Date.now()}`) {
+  const p = await createProcedure(conductor, name);
+  const content = {
+    phases: [
+      {
+        name: 'Terminal count',
+        steps: [
+          { kind: 'action', tSeconds: -3, station: 'TC', instruction: 'Start the data recorders.' },
+          { kind: 'action', tSeconds: -2, station: 'PROP', instruction: 'Pressurise the LOX tank.' },
+          { kind: 'action', tSeconds: 0, station: 'TC', instruction: 'Fire.' },
+        ],
+      },
+    ],
+  };
+  const saved = await put(conductor, `/api/procedures/${p.id}/revisions/1`, content);
+  if (saved.status !== 200) throw new Error(`save: ${saved.status} ${JSON.stringify(saved.body)}`);
+  await conductor.post(`/api/procedures/${p.id}/revisions/1/signoffs`, { as: 'conductor' }).expect(201);
+  const rev = await safety.post(`/api/procedures/${p.id}/revisions/1/signoffs`, { as: 'safety' }).expect(201);
+  return { procedureId: p.id as number, revisionId: rev.body.id as number };
+}
+
 /** The demo procedure's released revision (procedure 1, revision 1). */
 export async function demoRevision(c: TestClient) {
   const res = await c.get('/api/procedures/1').expect(200);
