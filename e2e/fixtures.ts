@@ -15,8 +15,10 @@ export type RoleName = keyof typeof ROLE_USERS;
 export const storageStateFor = (role: RoleName) => `e2e/.auth/${role}.json`;
 
 /** Every page must pass axe with no serious or critical violation. */
-export async function expectAccessible(page: Page, context: string) {
-  const results = await new AxeBuilder({ page }).analyze();
+export async function expectAccessible(page: Page, context: string, options: { rules?: string[] } = {}) {
+  const builder = new AxeBuilder({ page });
+  if (options.rules) builder.withRules(options.rules);
+  const results = await builder.analyze();
   const bad = results.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
   expect(bad.map((v) => `${context}: ${v.id} (${v.impact}) ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)).toEqual([]);
 }
