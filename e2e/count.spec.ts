@@ -92,12 +92,20 @@ test.describe('a live count', () => {
     await expect(page.getByRole('timer')).toHaveText('T-02:00:00');
   });
 
-  test('two phones and the conductor: a poll, a hold by press-and-hold, its clear, a recycle, the resume and T-0', async ({ page, browser, consoleErrors }) => {
+  test('two phones and the conductor run the demo procedure, picked up at T-0:45: a poll, a hold by press-and-hold, its clear, a recycle, the resume and T-0', async ({ page, browser, consoleErrors }) => {
     void consoleErrors;
-    test.setTimeout(120_000);
-    const id = await shortCount(page, browser, 40);
+    test.setTimeout(150_000);
+    const procedure = await (await page.request.get('/api/procedures/1')).json();
+    const revision = procedure.revisions.find((r: { status: string }) => r.status === 'released');
+    const created = await page.request.post('/api/counts', {
+      // Terminal count from T-20 s, so the hold at about T-0:35 may resume; the recycle goes back to T-0:45.
+      data: { procedureId: 1, revisionId: revision.id, name: `Kestrel-2 rehearsal ${Date.now().toString(36)}`, terminalCountSeconds: -20, recycleToSeconds: -45 },
+      headers: { 'X-CSRF-Token': await csrf(page.request) },
+    });
+    expect(created.status()).toBe(201);
+    const id = (await created.json()).id as number;
     await page.goto(`/counts/${id}`);
-    await expect(page.getByRole('timer')).toHaveText('T-00:00:40');
+    await expect(page.getByRole('timer')).toHaveText('T-02:00:00');
 
     const prop = await signedInPhone(browser, 'propellants@ternvalley.test');
     const pad = await signedInPhone(browser, 'pad@ternvalley.test');
@@ -109,10 +117,17 @@ test.describe('a live count', () => {
     await expect(board.getByRole('row').filter({ hasText: 'PROP' })).toContainText('connected');
     await expect(board.getByRole('row').filter({ hasText: 'PAD' })).toContainText('connected');
 
+    // The rehearsal picks the count up at T-0:45: the two hours of steps before are skipped, and logged so.
     await page.getByRole('button', { name: 'Start the count' }).click();
-    await page.getByRole('button', { name: 'Yes, start' }).click();
+    const start = page.getByRole('group', { name: 'Confirm: Start the count' });
+    await start.getByLabel('Start at').fill('T-0:45');
+    await start.getByRole('button', { name: 'Yes, start' }).click();
     await expect(page.getByText('COUNTING')).toBeVisible();
     await expect(prop.getByText('COUNTING')).toBeVisible();
+    const log = page.getByRole('region', { name: 'Count log' });
+    await expect(log).toContainText(/Count picked up at T-0:45 by Marek Lindqvist; \d+ earlier steps skipped/);
+    // The demo's own step at T-0:30 comes due for RANGE with its caution beside it.
+    await expect(log).toContainText('RANGE step due: Siren', { timeout: 20_000 });
 
     await page.getByRole('button', { name: 'Open a poll' }).click();
     const opener = page.getByRole('form', { name: 'Open a poll' });
@@ -127,7 +142,6 @@ test.describe('a live count', () => {
       await expect(asked).toBeVisible();
       await asked.getByRole('button', { name: 'GO', exact: true }).click();
     }
-    const log = page.getByRole('region', { name: 'Count log' });
     await expect(log).toContainText('PROP answered GO');
     await expect(log).toContainText('PAD answered GO');
     await expect(log).toContainText('closed: all GO');
@@ -154,12 +168,12 @@ test.describe('a live count', () => {
     // The conductor recycles to the start before resuming: the steps after it open again.
     await page.getByRole('button', { name: 'Recycle' }).click();
     const recycle = page.getByRole('group', { name: 'Confirm: Recycle' });
-    await recycle.getByLabel('Recycle to').fill('T-0:40');
+    await recycle.getByLabel('Recycle to').fill('T-0:45');
     await recycle.getByLabel('Why recycle?').fill('Run the last poll again after the vent valve check');
     await recycle.getByRole('button', { name: 'Yes, recycle' }).click();
-    await expect(log).toContainText('Recycled to T-00:00:40');
-    await expect(page.getByRole('timer')).toHaveText('T-00:00:40');
-    await expect(prop.getByRole('timer')).toHaveText('T-00:00:40');
+    await expect(log).toContainText('Recycled to T-00:00:45');
+    await expect(page.getByRole('timer')).toHaveText('T-00:00:45');
+    await expect(prop.getByRole('timer')).toHaveText('T-00:00:45');
     await page.getByRole('button', { name: 'Resume the count' }).click();
     await page.getByRole('button', { name: 'Yes, resume' }).click();
     await expect(page.getByText('COUNTING')).toBeVisible();

@@ -9,6 +9,8 @@ const ROW_MARKS = `(${INSERT_COLUMNS.split(',').map(() => '?').join(', ')})`;
 const INSERT_SQL = `INSERT INTO count_events (${INSERT_COLUMNS}) VALUES ${ROW_MARKS}`;
 // One multi-row INSERT per chunk in the fallback keeps a large group within SQLite's limit on bound values.
 const FALLBACK_INSERT_CHUNK = 200;
+// Rows per multi-row INSERT on the log's own connection (11 values a row, far inside SQLite's limit).
+const INSERT_CHUNK = 100;
 
 export interface EventRow {
   countId: number;
@@ -76,6 +78,21 @@ export function sqliteFile(sequelize: Sequelize): string | null {
  */
 export class SqliteLogWriter implements LogWriter {
   private opened: Promise<{ db: sqlite3.Database; insert: sqlite3.Statement }> | null = null;
+  /** Prepared multi-row INSERTs by row count, made as group sizes first occur. */
+  private readonly multi = new Map<number, Promise<sqlite3.Statement>>();
+
+  private statementFor(db: sqlite3.Database, rows: number): Promise<sqlite3.Statement> {
+    let statement = this.multi.get(rows);
+    if (!statement) {
+      const sql = `INSERT INTO count_events (${INSERT_COLUMNS}) VALUES ${Array.from({ length: rows }, () => ROW_MARKS).join(', ')}`;
+      statement = new Promise<sqlite3.Statement>((resolve, reject) => {
+        const s: sqlite3.Statement = db.prepare(sql, (error: Error | null) => (error ? reject(error) : resolve(s)));
+      });
+      statement.catch(() => this.multi.delete(rows));
+      this.multi.set(rows, statement);
+    }
+    return statement;
+  }
   private closed = false;
 
   constructor(
@@ -119,12 +136,15 @@ export class SqliteLogWriter implements LogWriter {
         all: <R>(sql: string, params: unknown[]) =>
           new Promise<R[]>((resolve, reject) => db.all(sql, params, (error: Error | null, rows: R[]) => (error ? reject(error) : resolve(rows)))),
         insert: async (rows) => {
-          // The runs queue on the one statement in call order; COMMIT is sent only after every one has finished.
-          const results = await Promise.allSettled(
-            rows.map((row) => new Promise<void>((resolve, reject) => insert.run(values(row), (error: Error | null) => (error ? reject(error) : resolve())))),
-          );
-          const failed = results.find((r): r is PromiseRejectedResult => r.status === 'rejected');
-          if (failed) throw failed.reason;
+          // One multi-row INSERT per chunk: one trip to the thread pool and back for a whole group instead of
+          // one per event. Each chunk is awaited before the next (and COMMIT after the last).
+          for (let i = 0; i < rows.length; i += INSERT_CHUNK) {
+            const chunk = rows.slice(i, i + INSERT_CHUNK);
+            const statement = chunk.length === 1 ? insert : await this.statementFor(db, chunk.length);
+            await new Promise<void>((resolve, reject) =>
+              statement.run(chunk.flatMap(values), (error: Error | null) => (error ? reject(error) : resolve())),
+            );
+          }
         },
       });
       await run(db, 'COMMIT');
@@ -155,6 +175,11 @@ export class SqliteLogWriter implements LogWriter {
     const { db, insert } = await opened.catch(() => ({ db: null, insert: null }));
     if (!db || !insert) return;
     await new Promise<void>((resolve) => insert.finalize(() => resolve()));
+    for (const pending of this.multi.values()) {
+      const statement = await pending.catch(() => null);
+      if (statement) await new Promise<void>((resolve) => statement.finalize(() => resolve()));
+    }
+    this.multi.clear();
     await new Promise<void>((resolve, reject) => db.close((error) => (error ? reject(error) : resolve())));
   }
 }

@@ -20,7 +20,12 @@ const commandId = z.string().min(1).max(64).optional();
 // ---------------------------------------------------------------- commands
 
 export const countCommandSchema = z.discriminatedUnion('type', [
-  z.strictObject({ type: z.literal('count:start'), commandId }),
+  z.strictObject({
+    type: z.literal('count:start'),
+    commandId,
+    /** Pick the count up later than the plan's start (a rehearsal of the last minutes); earlier steps are skipped. */
+    fromSeconds: z.number().int('Whole seconds').max(-1, 'Pick the count up before T-0').min(-30 * 24 * 3600).optional(),
+  }),
   z.strictObject({
     type: z.literal('poll:open'),
     commandId,

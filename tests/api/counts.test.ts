@@ -114,6 +114,20 @@ describe('commands over HTTP (the same path as the socket)', () => {
     expect((await auditor.get(`/api/counts/${id}/events`).expect(200)).body.length).toBe(before);
   });
 
+  it('picks a count up later: the clock starts there and the steps before it are skipped; T-0 and after are refused', async () => {
+    const id = await newDemoCount('Rehearsal of the last minute');
+    const late = await command(conductor, id, { type: 'count:start', fromSeconds: 0 }).expect(400);
+    expect(late.body.details).toEqual([{ path: 'fromSeconds', message: 'Pick the count up before T-0' }]);
+    const early = await command(conductor, id, { type: 'count:start', fromSeconds: -9000 }).expect(400);
+    expect(early.body.error).toContain('between T-2:00:00 and T-0:01');
+    await command(conductor, id, { type: 'count:start', fromSeconds: -60 }).expect(200);
+    const state = (await auditor.get(`/api/counts/${id}/state`).expect(200)).body;
+    expect(state.clock.tSeconds).toBeGreaterThanOrEqual(-60);
+    expect(state.clock.tSeconds).toBeLessThan(-50);
+    expect(state.steps.brief).toMatchObject({ status: 'done', skipped: true });
+    expect(state.steps['siren-final']).toMatchObject({ status: 'pending' });
+  });
+
   it('bad commands are 400 at the field; a retried commandId acts once', async () => {
     const id = await newDemoCount();
     await command(conductor, id, { type: 'count:start' }).expect(200);

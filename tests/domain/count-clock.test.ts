@@ -48,6 +48,39 @@ describe('the count clock', () => {
   });
 });
 
+describe('picking the count up later (a rehearsal of its last minutes)', () => {
+  it('starts the clock at the chosen T; the steps before it are skipped, the built-in hold among them', () => {
+    const sim = new Sim();
+    const started = sim.ok(conductor, { type: 'count:start', fromSeconds: -700 }, START);
+    expect(started.map((e) => [e.type, e.payload])).toEqual([['count:started', { fromSeconds: -700 }]]);
+    expect(tAt(sim.state, at(40))).toBe(-660);
+    // s1 to s4 (T-30:00 to T-15:00, the untimed s2 after s1) are skipped: done, with nobody's name on them.
+    for (const key of ['s1', 's2', 's3', 's4']) expect(sim.state.steps[key]).toMatchObject({ status: 'done', skipped: true, completedBy: null });
+    expect(sim.state.steps.s5).toMatchObject({ status: 'pending' });
+    expect(sim.state.builtInHold).toBeNull();
+    // Projected T-0 counts no built-in hold: the only one was skipped. 700 s from START.
+    expect(projectedT0(sim.state, START)).toBe(at(700));
+    // The poll at T-10:00 opens 100 s in.
+    const due = sim.advance(at(100));
+    expect(due.map((e) => [e.type, e.at])).toEqual([
+      ['step:reached', at(100)],
+      ['poll:opened', at(100)],
+    ]);
+  });
+
+  it('is refused before the plan starts or at T-0 and later, and once the count runs', () => {
+    const sim = new Sim();
+    for (const fromSeconds of [-1801, 0, 5]) {
+      const d = sim.command(conductor, { type: 'count:start', fromSeconds }, START);
+      expect(d).toMatchObject({ ok: false, status: 400 });
+      if (!d.ok) expect(d.error).toContain('between T-30:00 and T-0:01');
+    }
+    // The plan's own start is an ordinary start.
+    expect(sim.ok(conductor, { type: 'count:start', fromSeconds: -1800 }, START)[0]!.payload).toEqual({});
+    expect(sim.command(conductor, { type: 'count:start', fromSeconds: -60 }, at(1))).toMatchObject({ ok: false, status: 409 });
+  });
+});
+
 describe('built-in holds', () => {
   it('stop the clock exactly at their time for their length and resume by themselves', () => {
     const sim = new Sim();

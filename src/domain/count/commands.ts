@@ -12,7 +12,7 @@ import { replay } from './reduce';
 import { isLive, openHolds, tAt, type CountState, type HoldRecord } from './state';
 
 export type CountCommand =
-  | { type: 'count:start' }
+  | { type: 'count:start'; fromSeconds?: number }
   | { type: 'poll:open'; question?: string; stations?: string[]; stepKey?: string | null; timeoutSeconds?: number }
   | { type: 'poll:answer'; pollId: string; station: string; answer: PollAnswerValue; reason?: string }
   | { type: 'hold:call'; category: HoldCategory; reason: string; station?: string }
@@ -105,7 +105,12 @@ export function decide(state: CountState, command: CountCommand, ctx: CommandCon
       const no = conductorOnly('starts the count');
       if (no) return no;
       if (state.status !== 'ready') return refuse(409, 'The count has already started.');
-      return accept([draft('count:started', {}, as())]);
+      const from = command.fromSeconds;
+      if (from === undefined || from === plan.startTSeconds) return accept([draft('count:started', {}, as())]);
+      if (!Number.isInteger(from) || from < plan.startTSeconds || from >= 0) {
+        return refuse(400, `Pick the count up between ${t(plan.startTSeconds)} and T-0:01.`);
+      }
+      return accept([draft('count:started', { fromSeconds: from }, as())]);
     }
 
     case 'poll:open': {

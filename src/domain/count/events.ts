@@ -89,7 +89,8 @@ type Empty = Record<string, never>;
 
 export interface CountEventPayloads {
   'count:created': CountPlan;
-  'count:started': Empty;
+  /** fromSeconds: the count picked up later than the plan's start; the steps before it are skipped. */
+  'count:started': { fromSeconds?: number };
   'step:reached': { stepKey: string };
   'step:completed': { stepKey: string };
   'reading:recorded': { stepKey: string; value: number; unit: string; inLimits: boolean; message: string };

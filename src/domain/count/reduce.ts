@@ -97,8 +97,19 @@ const handlers: { [T in CountEventType]: Handler<T> } = {
 
   'count:started': (state, e) => {
     if (!state.plan) return state;
-    const next: CountState = { ...state, status: 'counting', startedAt: e.at };
-    return reclock(state, next, e.at, state.plan.startTSeconds);
+    const from = e.payload.fromSeconds ?? state.plan.startTSeconds;
+    let next: CountState = { ...state, status: 'counting', startedAt: e.at };
+    if (from > state.plan.startTSeconds) {
+      // Picked up later: every step due before that time is skipped, done without anyone doing it.
+      const times = reachTimes(state.plan);
+      const steps = { ...next.steps };
+      for (const s of countedSteps(state.plan)) {
+        const cur = steps[s.key];
+        if (cur && cur.status === 'pending' && (times.get(s.key) ?? 0) < from) steps[s.key] = { ...cur, status: 'done', completedAt: e.at, skipped: true };
+      }
+      next = { ...next, steps };
+    }
+    return reclock(state, next, e.at, from);
   },
 
   'step:reached': (state, e) => patchStep(state, e.payload.stepKey, { status: 'current', reachedAt: e.at }),

@@ -66,6 +66,8 @@ export interface StepState {
   readings: ReadingRecord[];
   /** How many times a recycle sent this step back to pending. */
   reopened: number;
+  /** Done because the count was picked up after its time (a rehearsal from a later T), not because anyone did it. */
+  skipped?: boolean;
 }
 
 export interface PollAnswer {

@@ -116,6 +116,7 @@ export function ConductorConsole({ live, me, manned }: { live: LiveCount; me: Me
   const [form, setForm] = useState<'poll' | 'hold' | 'scrub' | null>(null);
   const [recycleTo, setRecycleTo] = useState<string | null>(null);
   const [recycleReason, setRecycleReason] = useState('');
+  const [startAt, setStartAt] = useState<string | null>(null);
 
   if (!state?.plan) return null;
   const plan = state.plan;
@@ -141,6 +142,8 @@ export function ConductorConsole({ live, me, manned }: { live: LiveCount; me: Me
   const defaultRecycle = formatTMinus(Math.min(plan.recycleToSeconds, Math.floor(state.clock.tSeconds)));
   const recycleText = recycleTo ?? defaultRecycle;
   const recycleSeconds = parseTMinus(recycleText);
+  const startText = startAt ?? formatTMinus(plan.startTSeconds);
+  const startSeconds = parseTMinus(startText);
 
   return (
     <div className="flex flex-col gap-4">
@@ -183,7 +186,21 @@ export function ConductorConsole({ live, me, manned }: { live: LiveCount; me: Me
 
       <section aria-label="Controls" className="flex flex-wrap gap-2 rounded-md border-2 border-line bg-surface p-3">
         {state.status === 'ready' ? (
-          <ConfirmButton label="Start the count" variant="primary" question={`Start the count at ${formatTMinus(plan.startTSeconds)}?`} confirmLabel="Yes, start" onConfirm={() => run(send({ type: 'count:start' }))} />
+          <ConfirmButton
+            label="Start the count"
+            variant="primary"
+            question={`Start the count at ${formatTMinus(plan.startTSeconds)}, or pick it up later (a rehearsal of the last minutes: the steps before are skipped and logged as skipped)?`}
+            confirmLabel="Yes, start"
+            onConfirm={() => {
+              if (startSeconds === undefined) {
+                setProblem(T_MINUS_HINT);
+                return;
+              }
+              return run(send(startSeconds === plan.startTSeconds ? { type: 'count:start' } : { type: 'count:start', fromSeconds: startSeconds }), () => setStartAt(null));
+            }}
+          >
+            <TextField label="Start at" hint={T_MINUS_HINT} value={startText} onChange={(e) => setStartAt(e.target.value)} error={startSeconds === undefined ? T_MINUS_HINT : undefined} />
+          </ConfirmButton>
         ) : null}
         {live_ && !state.poll && form !== 'poll' ? <Button onClick={() => setForm('poll')}>Open a poll</Button> : null}
         {form === 'poll' ? (

@@ -194,7 +194,7 @@ export function StepCard({ step, stepState, plan, label, children }: { step: Pla
     <article aria-label={label ?? `Step: ${step.instruction}`} className="rounded-md border-2 border-line bg-surface p-3">
       <p className="text-sm font-bold uppercase tracking-wide text-ink-muted">
         {step.station} · {STEP_KIND_LABELS[step.kind]} · {step.tSeconds !== null ? formatCountClock(step.tSeconds) : at !== undefined ? `untimed (after ${formatCountClock(at)})` : 'safing'}
-        {stepState?.status === 'done' ? ' · done' : ''}
+        {stepState?.status === 'done' ? (stepState.skipped ? ' · skipped' : ' · done') : ''}
       </p>
       <p className="my-1 text-xl font-bold">{step.instruction}</p>
       {step.kind === 'reading' ? (

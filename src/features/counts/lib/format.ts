@@ -2,7 +2,8 @@ import { format } from 'date-fns';
 import type { GlyphShape } from '../../../components/ui/Glyph';
 import type { BadgeTone } from '../../../components/ui/Badge';
 import { HOLD_CATEGORY_LABELS, type CountEvent, type CountPlan } from '../../../domain/count/events';
-import { stepLabel } from '../../../domain/count/plan';
+import { countedSteps, reachTimes, stepLabel } from '../../../domain/count/plan';
+import { formatTMinus } from '../../../domain/procedures/tminus';
 import type { CountStatus } from '../../../domain/count/state';
 
 function pad(n: number): string {
@@ -56,8 +57,13 @@ export function eventWords(e: CountEvent, plan: CountPlan | null): string {
   switch (e.type) {
     case 'count:created':
       return `Count created from revision ${e.payload.revisionNumber} by ${e.actor?.name ?? 'the server'}`;
-    case 'count:started':
-      return `Count started by ${e.actor?.name ?? 'the conductor'}`;
+    case 'count:started': {
+      const from = e.payload.fromSeconds;
+      const by = `by ${e.actor?.name ?? 'the conductor'}`;
+      if (from === undefined) return `Count started ${by}`;
+      const skipped = plan ? countedSteps(plan).filter((s) => (reachTimes(plan).get(s.key) ?? 0) < from).length : 0;
+      return `Count picked up at ${formatTMinus(from)} ${by}; ${skipped} earlier step${skipped === 1 ? '' : 's'} skipped`;
+    }
     case 'step:reached': {
       const s = stepOf(plan, e.payload.stepKey);
       return `${s.station} step due: ${s.label}`;
