@@ -2,6 +2,7 @@ import type { AddressInfo } from 'node:net';
 import { io as connect, type Socket } from 'socket.io-client';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { User } from '../../server/models';
+import { estimateOffset, serverTime, type ClockSyncSample } from '../../src/domain/count/clockSync';
 import { createUser, DEMO, signInWithCookie } from '../helpers/api';
 import { startTestApp, type TestApp } from '../helpers/app';
 
@@ -59,6 +60,27 @@ describe('socket.io', () => {
     expect(reply).toEqual({ data: { clientSentAt, serverAt: expect.any(Number) } });
     expect(reply.data.serverAt).toBeGreaterThanOrEqual(before);
     expect(reply.data.serverAt).toBeLessThanOrEqual(after);
+  });
+
+  it('a device whose clock is 7.3 s slow learns the server time within 50 ms from a burst of four exchanges', async () => {
+    const { cookie } = await signInWithCookie(t, DEMO.propellants);
+    const socket = open(cookie);
+    expect(await outcome(socket)).toBe('connected');
+    // The phone's clock, as useLiveCount reads it (Date.now), running 7300 ms behind the server's.
+    const skew = -7300;
+    const deviceNow = () => Date.now() + skew;
+    const samples: ClockSyncSample[] = [];
+    for (let i = 0; i < 4; i++) {
+      const clientSentAt = deviceNow();
+      const reply = await socket.timeout(3000).emitWithAck('clock:sync', { clientSentAt });
+      samples.push({ clientSentAt, serverAt: reply.data.serverAt, clientReceivedAt: deviceNow() });
+    }
+    const est = estimateOffset(samples)!;
+    expect(est.samples).toBe(4);
+    // RFC 5905: the error of an exchange's offset is at most half its round-trip delay.
+    expect(Math.abs(est.offset - 7300)).toBeLessThanOrEqual(est.delay / 2 + 1);
+    // The clock the screens draw, from the device clock and that offset, against the server's clock now.
+    expect(Math.abs(serverTime(deviceNow(), est) - Date.now())).toBeLessThanOrEqual(50);
   });
 
   it.each([

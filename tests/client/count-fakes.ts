@@ -22,6 +22,8 @@ export class FakeSocket {
   emitted: Emitted[] = [];
   /** When set, count:command is answered with the events it returns (or a refusal); otherwise never answered. */
   answerCommand: ((command: Record<string, unknown>) => { data: { events: CountEventDto[] } } | { error: string }) | null = null;
+  /** How far the server's clock is ahead of this device's: clock:sync answers with the device time plus this. */
+  serverAheadMs = 0;
   private handlers = new Map<string, Set<Fn>>();
 
   constructor(events: CountEventDto[]) {
@@ -42,7 +44,7 @@ export class FakeSocket {
   emit(event: string, payload: Record<string, unknown>, ack?: (reply: unknown) => void) {
     this.emitted.push({ event, payload });
     if (!ack) return this;
-    if (event === 'clock:sync') ack({ data: { clientSentAt: payload.clientSentAt, serverAt: payload.clientSentAt } });
+    if (event === 'clock:sync') ack({ data: { clientSentAt: payload.clientSentAt, serverAt: (payload.clientSentAt as number) + this.serverAheadMs } });
     if (event === 'count:join') {
       const since = payload.sinceSeq as number;
       ack({ data: { events: this.events.filter((e) => e.seq > since), state: replay(this.events) } });

@@ -2,6 +2,7 @@ import { act, fireEvent, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { setSocketFactory } from '../../src/lib/socket';
+import { CREATED } from '../domain/count-fixture';
 import { countDetail, ev, FakeSocket, PROP, startedCount } from './count-fakes';
 import { fakeApi, json } from './fake-api';
 import { people, renderApp } from './render-app';
@@ -47,6 +48,23 @@ describe('the conductor console', () => {
     expect(screen.getByText('HOLDING')).toBeInTheDocument();
     const log = screen.getByRole('region', { name: 'Count log' });
     expect(within(log).getAllByText(/HOLD H1 called by PROP \(Rowan Fenn\) — Propellant: Vent valve slow to close/)).toHaveLength(1);
+  });
+});
+
+describe('the clock on a device whose own clock is wrong', () => {
+  it('shows the server’s T from the offset the clock:sync exchange measured, not the device’s time', async () => {
+    // The count started at CREATED + 2 s at T-30:00; on the server it is now 100 s later: T-28:20.
+    const serverNow = CREATED + 2000 + 100_000;
+    // The phone's clock is 7.3 s slow; left uncorrected it would show T-28:27.
+    vi.useFakeTimers({ toFake: ['Date'], now: serverNow - 7300 });
+    socket = new FakeSocket(startedCount());
+    socket.serverAheadMs = 7300;
+    setSocketFactory(() => socket.asSocket());
+    fakeApi({ 'GET /api/auth/me': json(200, people.operator), 'GET /api/setup': setup, 'GET /api/counts/5': json(200, countDetail(socket.events)) });
+    renderApp('/counts/5');
+    const timer = await screen.findByRole('timer');
+    expect(socket.emitted.filter((e) => e.event === 'clock:sync').length).toBeGreaterThan(0);
+    await vi.waitFor(() => expect(timer).toHaveTextContent('T-00:28:20'));
   });
 });
 
