@@ -51,6 +51,29 @@ describe('the conductor console', () => {
   });
 });
 
+describe('the conductor’s controls', () => {
+  it('start the count at the plan’s start, or pick it up at a later T the conductor types; a bad T sends nothing', async () => {
+    const user = userEvent.setup();
+    const created = [ev(1, 'count:created', (await import('../domain/count-fixture')).kestrelPlan(), { actor: { userId: 1, name: 'Avery Quill' } })];
+    open(people.admin, created);
+    await user.click(await screen.findByRole('button', { name: 'Start the count' }));
+    const confirm = screen.getByRole('group', { name: 'Confirm: Start the count' });
+    const field = within(confirm).getByLabelText('Start at');
+    expect(field).toHaveValue('T-30:00');
+
+    await user.clear(field);
+    await user.type(field, 'soon');
+    await user.click(within(confirm).getByRole('button', { name: 'Yes, start' }));
+    expect(socket.commands()).toEqual([]);
+    expect(within(confirm).getAllByText(/Write a count time like T-30:00/).length).toBeGreaterThan(0);
+
+    await user.clear(field);
+    await user.type(field, 'T-10:00');
+    await user.click(within(confirm).getByRole('button', { name: 'Yes, start' }));
+    expect(socket.commands()).toEqual([expect.objectContaining({ type: 'count:start', fromSeconds: -600 })]);
+  });
+});
+
 describe('the clock on a device whose own clock is wrong', () => {
   it('shows the server’s T from the offset the clock:sync exchange measured, not the device’s time', async () => {
     // The count started at CREATED + 2 s at T-30:00; on the server it is now 100 s later: T-28:20.

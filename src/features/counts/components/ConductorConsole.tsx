@@ -194,7 +194,7 @@ export function ConductorConsole({ live, me, manned }: { live: LiveCount; me: Me
             onConfirm={() => {
               if (startSeconds === undefined) {
                 setProblem(T_MINUS_HINT);
-                return;
+                return false;
               }
               return run(send(startSeconds === plan.startTSeconds ? { type: 'count:start' } : { type: 'count:start', fromSeconds: startSeconds }), () => setStartAt(null));
             }}
@@ -238,7 +238,7 @@ export function ConductorConsole({ live, me, manned }: { live: LiveCount; me: Me
             onConfirm={() => {
               if (recycleSeconds === undefined || !recycleReason.trim()) {
                 setProblem(recycleSeconds === undefined ? T_MINUS_HINT : 'Say why the count recycles.');
-                return;
+                return false;
               }
               return run(send({ type: 'count:recycle', toSeconds: recycleSeconds, reason: recycleReason.trim() }), () => {
                 setRecycleTo(null);

@@ -311,7 +311,8 @@ export function ConfirmButton({
   label: string;
   question: string;
   confirmLabel: string;
-  onConfirm: () => void | Promise<void>;
+  /** Return false to keep asking (the answer in `children` is not usable yet). */
+  onConfirm: () => void | boolean | Promise<void | boolean>;
   variant?: 'primary' | 'secondary' | 'danger';
   disabled?: boolean;
   children?: ReactNode;
@@ -332,8 +333,7 @@ export function ConfirmButton({
         <Button
           variant={variant === 'danger' ? 'danger' : 'primary'}
           onClick={async () => {
-            await onConfirm();
-            setAsking(false);
+            if ((await onConfirm()) !== false) setAsking(false);
           }}
         >
           {confirmLabel}
