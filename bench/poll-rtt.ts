@@ -24,7 +24,9 @@ const FULL = [
   { n: 200, warmup: 3, measured: 12 },
 ];
 /** BENCH_QUICK=1: a short smoke run of the whole bench, for working on the bench itself. */
-const RUNS = process.env.BENCH_QUICK ? FULL.map((r) => ({ ...r, warmup: 2, measured: 3 })) : FULL;
+/** BENCH_SIZES=50 (or 10,50): only those N, for profiling one size. */
+const SIZES = process.env.BENCH_SIZES ? process.env.BENCH_SIZES.split(',').map(Number) : null;
+const RUNS = (process.env.BENCH_QUICK ? FULL.map((r) => ({ ...r, warmup: 2, measured: 3 })) : FULL).filter((r) => !SIZES || SIZES.includes(r.n));
 const GAP_MS = 5;
 const POLL_LIMIT_MS = 30_000;
 const STATION_PROCESSES = 2;
