@@ -24,6 +24,8 @@ import { tAt, type CountState } from '../../src/domain/count/state';
 import type { ResolvedCaution } from '../../src/domain/procedures/cautions';
 import { neededStations } from '../../src/domain/procedures/manning';
 import type { CountService } from '../counts/service';
+import { toCsv, toJsonl } from '../counts/export';
+import type { ChainedEvent } from '../../src/domain/count/chain';
 import { badRequest, conflict, HttpError, notFound } from '../http/errors';
 import { route } from '../http/route';
 import { Count, CrewAssignment, CrewPlan, Procedure, ProcedureRevision, Station, User } from '../models';
@@ -43,6 +45,10 @@ const eventsQuerySchema = z.strictObject({
     .regex(/^\d{1,9}$/, 'Give a sequence number')
     .transform(Number)
     .optional(),
+});
+
+const exportQuerySchema = z.strictObject({
+  format: z.enum(['jsonl', 'csv'], 'Choose format=jsonl or format=csv').default('jsonl'),
 });
 
 /** The state with its clock read at `now`, so a client that never saw the anchor reads the same T. */
@@ -215,6 +221,23 @@ export function countRoutes({ counts }: { counts: CountService }) {
       handler: async ({ params, query, user }): Promise<CountEventDto[]> => {
         await findCount(user!.teamId, params.id);
         return counts.eventsSince(user!.teamId, params.id, query.sinceSeq ?? 0);
+      },
+    }),
+    route({
+      method: 'get',
+      path: '/counts/:id/export',
+      access: 'signed-in',
+      params: idParamSchema,
+      query: exportQuerySchema,
+      handler: async ({ params, query, user, res }) => {
+        await findCount(user!.teamId, params.id);
+        const events = await counts.eventsSince(user!.teamId, params.id, 0);
+        const chained = events.map((e) => ({ ...e, actor: e.actor ? { userId: e.actor.userId, name: e.actor.name } : null }));
+        const csv = query.format === 'csv';
+        res.setHeader('Content-Type', csv ? 'text/csv; charset=utf-8' : 'application/jsonl; charset=utf-8');
+        res.setHeader('Content-Disposition', `attachment; filename="count-${params.id}-log.${csv ? 'csv' : 'jsonl'}"`);
+        res.setHeader('Cache-Control', 'no-store');
+        res.send(csv ? toCsv(chained as ChainedEvent[]) : toJsonl(chained as ChainedEvent[]));
       },
     }),
     route({
