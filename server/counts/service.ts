@@ -323,6 +323,14 @@ export class CountService {
     return live;
   }
 
+  /** The server's check of the count's hash chain from the database, with the last hash. */
+  async verify(teamId: number, countId: number) {
+    await this.get(teamId, countId);
+    const verdict = await this.deps.log.verify(countId);
+    const [last] = (await this.deps.log.read(countId, { sinceSeq: Math.max(0, (verdict.ok ? verdict.count : 0) - 1) })).slice(-1);
+    return { ...verdict, lastHash: verdict.ok ? (last?.hash ?? null) : null };
+  }
+
   /** The events after `sinceSeq`, read from the log (which holds the hashes). */
   async eventsSince(teamId: number, countId: number, sinceSeq = 0): Promise<CountEventDto[]> {
     await this.get(teamId, countId);

@@ -225,6 +225,17 @@ export function countRoutes({ counts }: { counts: CountService }) {
     }),
     route({
       method: 'get',
+      path: '/counts/:id/verify',
+      access: 'signed-in',
+      params: idParamSchema,
+      handler: async ({ params, user }) => {
+        await findCount(user!.teamId, params.id);
+        const verdict = await counts.verify(user!.teamId, params.id);
+        return verdict;
+      },
+    }),
+    route({
+      method: 'get',
       path: '/counts/:id/export',
       access: 'signed-in',
       params: idParamSchema,

@@ -5,6 +5,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseCsv, parseJsonl } from '../../server/counts/export';
+import { CountEvent } from '../../server/models';
 import { DEMO } from '../helpers/api';
 import { startTestApp, type TestApp, type TestClient } from '../helpers/app';
 import { demoRevision } from '../helpers/counts';
@@ -111,5 +112,24 @@ describe('exporting a count log and verifying it offline', () => {
     expect(bad.stderr).toMatch(/is not a count log export: line 1: /);
     const res = await auditor.get(`/api/counts/${id}/export?format=xml`).expect(400);
     expect(res.body.details[0].path).toBe('format');
+  });
+});
+
+describe('GET /api/counts/:id/verify', () => {
+  it('answers intact with the last hash; after someone edits an event in the database file it names that event', async () => {
+    const events = (await auditor.get(`/api/counts/${id}/events`).expect(200)).body as { seq: number; hash: string; type: string }[];
+    const intact = (await auditor.get(`/api/counts/${id}/verify`).expect(200)).body;
+    expect(intact).toEqual({ ok: true, count: events.length, lastHash: events.at(-1)!.hash });
+
+    // Someone with the database file drops the append-only triggers and edits a reason.
+    const held = events.find((e) => e.type === 'hold:called')!;
+    const sequelize = CountEvent.sequelize!;
+    await sequelize.transaction(async (transaction) => {
+      await sequelize.query('DROP TRIGGER count_events_no_update;', { transaction });
+      await sequelize.query("UPDATE count_events SET payload = replace(payload, 'Vent valve', 'Fill valve') WHERE count_id = ? AND seq = ?", { replacements: [id, held.seq], transaction });
+      await sequelize.query(`CREATE TRIGGER count_events_no_update BEFORE UPDATE ON count_events BEGIN SELECT RAISE(ABORT, 'count events are append-only'); END;`, { transaction });
+    });
+    const broken = (await auditor.get(`/api/counts/${id}/verify`).expect(200)).body;
+    expect(broken).toMatchObject({ ok: false, seq: held.seq, reason: 'hash-mismatch', lastHash: null });
   });
 });

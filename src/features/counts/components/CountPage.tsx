@@ -7,6 +7,7 @@ import { useCount } from '../api/getCount';
 import { useLiveCount } from '../hooks/useLiveCount';
 import { ConductorConsole } from './ConductorConsole';
 import { StationPanel } from './StationPanel';
+import { RecordCheck } from './RecordCheck';
 import { WatchView } from './WatchView';
 
 type View = 'console' | 'station' | 'watch';
@@ -78,6 +79,7 @@ export function CountPage() {
       {view === 'console' ? <ConductorConsole live={live} me={me} manned={manned} /> : null}
       {view === 'station' ? <StationPanel live={live} me={me} station={station} manned={manned} /> : null}
       {view === 'watch' ? <WatchView live={live} /> : null}
+      {view !== 'station' ? <RecordCheck countId={countId} /> : null}
     </Page>
   );
 }
