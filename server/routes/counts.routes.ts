@@ -20,6 +20,7 @@ import {
   type PhaseWithCautions,
 } from '../../src/domain/count/plan';
 import { stateAt } from '../../src/domain/count/reduce';
+import { countReport } from '../../src/domain/count/report';
 import { tAt, type CountState } from '../../src/domain/count/state';
 import type { ResolvedCaution } from '../../src/domain/procedures/cautions';
 import { neededStations } from '../../src/domain/procedures/manning';
@@ -221,6 +222,17 @@ export function countRoutes({ counts }: { counts: CountService }) {
       handler: async ({ params, query, user }): Promise<CountEventDto[]> => {
         await findCount(user!.teamId, params.id);
         return counts.eventsSince(user!.teamId, params.id, query.sinceSeq ?? 0);
+      },
+    }),
+    route({
+      method: 'get',
+      path: '/counts/:id/report',
+      access: 'signed-in',
+      params: idParamSchema,
+      handler: async ({ params, user }) => {
+        const row = await findCount(user!.teamId, params.id);
+        const events = await counts.eventsSince(user!.teamId, params.id, 0);
+        return { countId: params.id, countName: row.name, ...countReport(events as unknown as Parameters<typeof countReport>[0]) };
       },
     }),
     route({

@@ -133,3 +133,19 @@ describe('GET /api/counts/:id/verify', () => {
     expect(broken).toMatchObject({ ok: false, seq: held.seq, reason: 'hash-mismatch', lastHash: null });
   });
 });
+
+describe('GET /api/counts/:id/report', () => {
+  it('totals the holds against the log: from the call to the resume, and the crew on each station', async () => {
+    const events = (await auditor.get(`/api/counts/${id}/events`).expect(200)).body as { type: string; at: number }[];
+    const called = events.find((e) => e.type === 'hold:called')!.at;
+    const resumed = events.find((e) => e.type === 'count:resumed')!.at;
+    const report = (await auditor.get(`/api/counts/${id}/report`).expect(200)).body;
+    expect(report).toMatchObject({ countId: id, countName: 'Exported run', status: 'counting', startedAtT: -7200, actualT0At: null, slipSeconds: null });
+    expect(report.holds).toMatchObject({ count: 1, totalSeconds: (resumed - called) / 1000, byCategory: { propellant: (resumed - called) / 1000 } });
+    // (The record-check test above edited this reason in the database file; the report reads the log as it is.)
+    expect(report.holds.list[0]).toMatchObject({ calledByStation: 'PROP', reason: expect.stringMatching(/valve "slow", to close/) });
+    expect(report.crew.find((c: { station: string }) => c.station === 'PROP').names).toEqual(['Tomasz Reyes']);
+    expect(report.events).toBe(events.length);
+    await auditor.get('/api/counts/999999/report').expect(404);
+  });
+});

@@ -7,3 +7,4 @@ export * from './due';
 export * from './commands';
 export * from './projection';
 export * from './clockSync';
+export * from './report';

@@ -98,7 +98,7 @@ const handlers: { [T in CountEventType]: Handler<T> } = {
   'count:started': (state, e) => {
     if (!state.plan) return state;
     const from = e.payload.fromSeconds ?? state.plan.startTSeconds;
-    let next: CountState = { ...state, status: 'counting', startedAt: e.at };
+    let next: CountState = { ...state, status: 'counting', startedAt: e.at, startedAtT: from };
     if (from > state.plan.startTSeconds) {
       // Picked up later: every step due before that time is skipped, done without anyone doing it.
       const times = reachTimes(state.plan);

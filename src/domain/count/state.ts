@@ -141,6 +141,8 @@ export interface CountState {
   recycles: RecycleRecord[];
   scrub: ScrubRecord | null;
   startedAt: number | null;
+  /** T at the start: the plan's start, or the later time the count was picked up at. */
+  startedAtT: number | null;
   t0At: number | null;
   /** When firing was declared over. */
   completedAt: number | null;
@@ -167,6 +169,7 @@ export function initialCountState(): CountState {
     recycles: [],
     scrub: null,
     startedAt: null,
+    startedAtT: null,
     t0At: null,
     completedAt: null,
     closedAt: null,
