@@ -186,6 +186,23 @@ test.describe('a live count', () => {
     await page.getByRole('button', { name: 'Yes, firing complete' }).click();
     await expect(page.getByText(/SAFING|COMPLETE/).first()).toBeVisible();
 
+    // The count report, from the log: the hold, the recycle, both stations' answers.
+    await page.getByRole('link', { name: 'Count report' }).click();
+    await expect(page.getByRole('heading', { level: 1 })).toContainText('Count report: Kestrel-2 rehearsal');
+    const holds = page.getByRole('region', { name: 'Holds' });
+    await expect(holds).toContainText('1 hold, the count stood');
+    await expect(holds.getByRole('row').filter({ hasText: 'h1' })).toContainText('PROP (Tomasz Reyes)');
+    await expect(page.getByRole('region', { name: 'Recycles' })).toContainText('to T-0:45 by Marek Lindqvist: Run the last poll again');
+    const polls = page.getByRole('region', { name: 'Go/no-go polls' });
+    await expect(polls.getByRole('row').filter({ hasText: 'PAD' })).toBeVisible();
+    await expect(page.getByRole('region', { name: 'T-0, planned and actual' })).toContainText('late');
+    await expectAccessible(page, 'count report daylight desktop');
+    await page.screenshot({ path: 'e2e/screenshots/count-report-desktop-daylight.png', fullPage: true });
+    await page.setViewportSize({ width: 390, height: 844 });
+    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+    expect(overflow, 'count report scrolls sideways on a phone').toBeLessThanOrEqual(0);
+    await page.screenshot({ path: 'e2e/screenshots/count-report-phone-daylight.png', fullPage: true });
+
     await prop.context().close();
     await pad.context().close();
   });

@@ -17,6 +17,7 @@ import { mountRoutes, type RouteDef } from './http/route';
 import { initModels } from './models';
 import { CountEvents } from './counts/events';
 import { EventLog } from './counts/log';
+import type { CountEvent } from '../src/domain/count/events';
 import { countRoom, CountService } from './counts/service';
 import { registerClockHandlers } from './realtime/clock.handlers';
 import { registerCountHandlers } from './realtime/count.handlers';
@@ -111,7 +112,12 @@ export function createApp(deps: AppDeps): HoldfireApp {
   const eventLog = new EventLog({ sequelize: deps.sequelize, busyTimeoutMs: config.dbBusyTimeoutMs });
   // The socket server is made below; events are only broadcast once it exists (a count cannot be reached before).
   let io: HoldfireServer | undefined;
-  const countEvents = new CountEvents({ mailer: deps.mailer, appUrl: config.appUrl, log });
+  const countEvents = new CountEvents({
+    mailer: deps.mailer,
+    appUrl: config.appUrl,
+    log,
+    readLog: async (countId) => (await eventLog.read(countId)) as unknown as (CountEvent & { hash: string })[],
+  });
   const counts = new CountService({
     log: eventLog,
     broadcast: (countId, events) => io?.to(countRoom(countId)).emit('count:events', events),

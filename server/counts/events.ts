@@ -9,7 +9,9 @@ import type { CountState } from '../../src/domain/count/state';
 import { tAt } from '../../src/domain/count/state';
 import { formatTMinus } from '../../src/domain/procedures/tminus';
 import type { Mailer } from '../mail/mailer';
-import { scrubNoticeMail } from '../mail/templates';
+import { countReportMail, scrubNoticeMail } from '../mail/templates';
+import { countReport } from '../../src/domain/count/report';
+import type { CountEvent } from '../../src/domain/count/events';
 import { Count, User } from '../models';
 
 export class CountEvents {
@@ -19,7 +21,15 @@ export class CountEvents {
   /** The status last written per count: most events (answers, presence) change none, and write nothing. */
   private written = new Map<number, string>();
 
-  constructor(private readonly deps: { mailer: Mailer; appUrl: string; log: (message: string, error?: unknown) => void }) {}
+  constructor(
+    private readonly deps: {
+      mailer: Mailer;
+      appUrl: string;
+      log: (message: string, error?: unknown) => void;
+      /** The count's whole log with hashes, for the report (committed before this runs). */
+      readLog?: (countId: number) => Promise<(CountEvent & { hash: string })[]>;
+    },
+  ) {}
 
   handle(count: { id: number; state: CountState }, events: CountEventDto[]): void {
     const status = count.state.status;
@@ -27,6 +37,9 @@ export class CountEvents {
     for (const e of events) {
       if (e.type === 'count:scrubbed') this.track(this.scrubNotice(count, e));
     }
+    // The count ends when safing is closed, or at a scrub when it has no safing steps: then the report goes out.
+    const ended = status === 'scrubbed' || status === 'complete';
+    if (ended && events.some((e) => e.type === 'count:safed' || e.type === 'count:scrubbed')) this.track(this.reportMail(count));
   }
 
   private writeStatus(id: number, status: string) {
@@ -60,6 +73,32 @@ export class CountEvents {
         tMinus: formatTMinus(Math.round(tAt(count.state, e.at))),
         link: `${this.deps.appUrl}/counts/${count.id}`,
       }),
+    );
+  }
+
+  private async crewEmails(state: CountState): Promise<string[]> {
+    const ids = [...new Set((state.plan?.crew ?? []).flatMap((c) => c.userIds))];
+    if (ids.length === 0) return [];
+    return (await User.findAll({ where: { id: ids, active: true }, attributes: ['email'] })).map((u) => u.email);
+  }
+
+  /** The count report to the crew once the count has ended (safing closed, after a firing or a scrub). */
+  private async reportMail(count: { id: number; state: CountState }) {
+    const to = await this.crewEmails(count.state);
+    if (to.length === 0 || !this.deps.readLog) return;
+    const r = countReport(await this.deps.readLog(count.id));
+    const t = (s: number) => formatTMinus(Math.round(s));
+    const secs = (s: number) => `${Math.round(s)} s`;
+    const lines = [
+      r.scrub ? `Scrubbed at ${t(r.scrub.atT)}: ${HOLD_CATEGORY_LABELS[r.scrub.category]}, ${r.scrub.reason}` : r.actualT0At !== null ? `T-0 at ${new Date(r.actualT0At).toUTCString()}` : 'T-0 was not reached',
+      r.slipSeconds !== null ? `Against the plan: ${r.slipSeconds > 0 ? `${secs(r.slipSeconds)} late` : r.slipSeconds < 0 ? `${secs(-r.slipSeconds)} early` : 'on time'}` : null,
+      `Holds: ${r.holds.count}, ${secs(r.holds.totalSeconds)} in all${r.holds.list.map((h) => `; ${h.holdId} at ${t(h.calledAtT)} by ${h.calledByStation ?? h.calledBy?.name ?? h.source}: ${HOLD_CATEGORY_LABELS[h.category]}, ${h.reason}`).join('')}`,
+      `Recycles: ${r.recycles.length}${r.recycles.map((c) => `; to ${t(c.toT)}: ${c.reason}`).join('')}`,
+      `Polls: ${r.polls.count} (${r.polls.passed} passed, ${r.polls.failed} failed)`,
+      `Readings out of limits: ${r.redlines.length}${r.redlines.map((x) => `; ${t(x.t)} ${x.station}: ${x.message}`).join('')}`,
+    ].filter((l): l is string => l !== null);
+    await this.deps.mailer.send(
+      countReportMail({ to, countName: count.state.plan?.name ?? `Count ${count.id}`, lines, lastHash: r.lastHash, link: `${this.deps.appUrl}/counts/${count.id}/report` }),
     );
   }
 

@@ -55,3 +55,24 @@ export function scrubNoticeMail(args: {
       SIGNATURE,
   };
 }
+
+/** The count report in words, to the crew when safing is closed and the count has ended. */
+export function countReportMail(args: {
+  to: string[];
+  countName: string;
+  lines: string[];
+  lastHash: string | null;
+  link: string;
+}): OutgoingMail {
+  return {
+    to: args.to,
+    subject: `Count report: ${args.countName}`,
+    text:
+      `${args.countName} has ended. What the count log records:\n\n` +
+      args.lines.map((l) => `- ${l}`).join('\n') +
+      `\n\nThe log's last hash: ${args.lastHash ?? '(none)'}. Keep this message: an export of the same log must end in the same hash.\n\n` +
+      `The full report, printable: ${args.link}` +
+      SIGNATURE,
+  };
+}
+

@@ -36,6 +36,7 @@ import { RootError, RouteError } from './RouteError';
 // The live count pulls in socket.io and the count screens: loaded only when a count page is opened.
 const CountsPage = lazy(() => import('../features/counts/components/CountsPage').then((m) => ({ default: m.CountsPage })));
 const CountPage = lazy(() => import('../features/counts/components/CountPage').then((m) => ({ default: m.CountPage })));
+const CountReportPage = lazy(() => import('../features/counts/components/CountReportPage').then((m) => ({ default: m.CountReportPage })));
 
 function Lazy({ children }: { children: ReactNode }) {
   return <Suspense fallback={<Loading />}>{children}</Suspense>;
@@ -91,6 +92,7 @@ export const routes: RouteObject[] = [
               { path: 'procedures/:id/revisions/:rev/print', element: <ProcedurePrintPage /> },
               { path: 'counts', element: <Lazy><CountsPage /></Lazy> },
               { path: 'counts/:id', element: <Lazy><CountPage /></Lazy> },
+              { path: 'counts/:id/report', element: <Lazy><CountReportPage /></Lazy> },
               { path: 'records', element: <RecordsPage /> },
               { path: 'profile', element: <ProfilePage /> },
               {

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { User } from '../../server/models';
-import { DEMO } from '../helpers/api';
+import { DEMO, outbox } from '../helpers/api';
 import { startTestApp, waitForMail, type TestApp, type TestClient } from '../helpers/app';
 import { demoRevision, releasedShortProcedure, releasedTinyProcedure } from '../helpers/counts';
 
@@ -216,6 +216,32 @@ describe('scrub', () => {
     expect(mail.subject).toBe('Scrubbed: Run for scrubbing');
     expect(mail.text).toContain('Thunderstorm cell 15 km west');
     expect(mail.text).toContain('Category: Weather');
+  });
+});
+
+describe('the end of a count', () => {
+  it('when a count ends (here a scrub with no safing steps) the crew gets the count report: the scrub, the holds, the last hash', async () => {
+    const rev = await releasedTinyProcedure(conductor, safety, `Tiny scrubbed ${Date.now()}`);
+    const id = (await conductor.post('/api/counts', { ...rev, name: 'Ends by scrub' }).expect(201)).body.id as number;
+    await command(conductor, id, { type: 'count:start' }).expect(200);
+    await command(prop, id, { type: 'hold:call', category: 'hardware', reason: 'Igniter lead chafed at the clamp' }).expect(200);
+    await command(safety, id, { type: 'count:scrub', category: 'hardware', reason: 'Igniter lead to be replaced' }).expect(200);
+    // The procedure has no safing steps: the scrub ends the count at once.
+    const closed = (await auditor.get(`/api/counts/${id}/events`).expect(200)) as { body: { hash: string }[] };
+    expect((await auditor.get(`/api/counts/${id}/state`).expect(200)).body.status).toBe('scrubbed');
+    const lastHash = closed.body.at(-1)!.hash;
+    const subject = `Count report: ${(await auditor.get(`/api/counts/${id}/state`).expect(200)).body.plan.name}`;
+    let mail: { subject: string; text: string } | undefined;
+    await until(async () => {
+      // One message to the whole crew: PROP's address is among its recipients.
+      mail = (await outbox(admin)).find((m) => m.subject === subject && m.to.includes('propellants@ternvalley.test'));
+      return mail !== undefined;
+    });
+    expect(mail!.text).toContain('Scrubbed at T-0:0');
+    expect(mail!.text).toContain('Igniter lead to be replaced');
+    expect(mail!.text).toMatch(/Holds: 1, \d+ s in all; h1 at T-0:0\d by PROP: Hardware, Igniter lead chafed at the clamp/);
+    expect(mail!.text).toContain(`The log's last hash: ${lastHash}.`);
+    expect(mail!.text).toContain(`/counts/${id}/report`);
   });
 });
 

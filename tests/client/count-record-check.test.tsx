@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import { render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
+import { MemoryRouter } from 'react-router-dom';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { RecordCheck } from '../../src/features/counts/components/RecordCheck';
 import { eventHash, GENESIS_HASH, type ChainedEvent } from '../../src/domain/count/chain';
@@ -28,7 +29,7 @@ describe('the record check', () => {
     expect(globalThis.crypto?.subtle).toBeDefined();
     const events = await chain(5);
     fakeApi({ 'GET /api/counts/9/events': json(200, events), 'GET /api/counts/9/verify': json(200, { ok: true, count: 5, lastHash: events[4]!.hash }) });
-    render(<RecordCheck countId={9} />);
+    render(<MemoryRouter><RecordCheck countId={9} /></MemoryRouter>);
     await userEvent.click(screen.getByRole('button', { name: 'Check the record' }));
     const status = await screen.findByRole('status');
     expect(within(status).getByText('Checked in this browser: intact: 5 events, each chained to the one before.')).toBeInTheDocument();
@@ -41,7 +42,7 @@ describe('the record check', () => {
     const events = await chain(5);
     events[2] = { ...events[2]!, payload: { value: 99, unit: 'bar' } };
     fakeApi({ 'GET /api/counts/9/events': json(200, events), 'GET /api/counts/9/verify': json(200, { ok: true, count: 5, lastHash: events[4]!.hash }) });
-    render(<RecordCheck countId={9} />);
+    render(<MemoryRouter><RecordCheck countId={9} /></MemoryRouter>);
     await userEvent.click(screen.getByRole('button', { name: 'Check the record' }));
     const status = await screen.findByRole('status');
     expect(within(status).getByText('Checked in this browser: BROKEN at event #3: this event’s content was changed after it was written.')).toBeInTheDocument();

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { Link } from 'react-router-dom';
 import { Button } from '../../../components/ui/Button';
 import type { CountEventDto } from '../../../contract/count';
 import { verifyChain, type ChainedEvent, type ChainVerdict } from '../../../domain/count/chain';
@@ -57,6 +58,9 @@ export function RecordCheck({ countId }: { countId: number }) {
         <Button onClick={() => void check()} pending={busy} pendingLabel="Checking…">
           Check the record
         </Button>
+        <Link className="font-bold underline" to={`/counts/${countId}/report`}>
+          Count report
+        </Link>
         <a className="font-bold underline" href={`/api/counts/${countId}/export?format=jsonl`} download>
           Download the log (JSON Lines)
         </a>
