@@ -203,6 +203,16 @@ test.describe('a live count', () => {
     expect(overflow, 'count report scrolls sideways on a phone').toBeLessThanOrEqual(0);
     await page.screenshot({ path: 'e2e/screenshots/count-report-phone-daylight.png', fullPage: true });
 
+    // The replay: back from the end of the log to the hold, its reason and who called it, with the clock standing there.
+    await page.goto(`/counts/${id}/replay`);
+    await expect(page.getByRole('timer')).toHaveText(/^T\+/);
+    await page.getByRole('button', { name: 'Previous hold' }).click();
+    await expect(page.getByRole('region', { name: 'Hold', exact: true })).toContainText('Propellant: Vent valve slow to close');
+    await expect(page.getByRole('region', { name: 'Hold', exact: true })).toContainText('called by PROP (Tomasz Reyes)');
+    await expect(page).toHaveURL(/replay\?at=\d+/);
+    await expectAccessible(page, 'count replay daylight phone');
+    await page.screenshot({ path: 'e2e/screenshots/count-replay-phone-daylight.png', fullPage: true });
+
     await prop.context().close();
     await pad.context().close();
   });

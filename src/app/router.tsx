@@ -36,6 +36,7 @@ import { RootError, RouteError } from './RouteError';
 // The live count pulls in socket.io and the count screens: loaded only when a count page is opened.
 const CountsPage = lazy(() => import('../features/counts/components/CountsPage').then((m) => ({ default: m.CountsPage })));
 const CountPage = lazy(() => import('../features/counts/components/CountPage').then((m) => ({ default: m.CountPage })));
+const CountReplayPage = lazy(() => import('../features/counts/components/CountReplayPage').then((m) => ({ default: m.CountReplayPage })));
 const CountReportPage = lazy(() => import('../features/counts/components/CountReportPage').then((m) => ({ default: m.CountReportPage })));
 
 function Lazy({ children }: { children: ReactNode }) {
@@ -93,6 +94,7 @@ export const routes: RouteObject[] = [
               { path: 'counts', element: <Lazy><CountsPage /></Lazy> },
               { path: 'counts/:id', element: <Lazy><CountPage /></Lazy> },
               { path: 'counts/:id/report', element: <Lazy><CountReportPage /></Lazy> },
+              { path: 'counts/:id/replay', element: <Lazy><CountReplayPage /></Lazy> },
               { path: 'records', element: <RecordsPage /> },
               { path: 'profile', element: <ProfilePage /> },
               {

@@ -61,6 +61,9 @@ export function RecordCheck({ countId }: { countId: number }) {
         <Link className="font-bold underline" to={`/counts/${countId}/report`}>
           Count report
         </Link>
+        <Link className="font-bold underline" to={`/counts/${countId}/replay`}>
+          Replay
+        </Link>
         <a className="font-bold underline" href={`/api/counts/${countId}/export?format=jsonl`} download>
           Download the log (JSON Lines)
         </a>

@@ -9,6 +9,11 @@ import { initialCountState, tAt, type CountState } from '../../../domain/count/s
 import { sessionKeys } from '../../../lib/session';
 import { closeSocket, getSocket } from '../../../lib/socket';
 
+/** The count time a log line shows: when it happened, except a start, which shows the T the count started at. */
+export function logT(before: CountState, after: CountState, e: CountEvent): number {
+  return e.type === 'count:started' ? tAt(after, e.at) : tAt(before, e.at);
+}
+
 export type Connection = 'connecting' | 'connected' | 'reconnecting' | 'offline';
 
 /** One log line: the event and the count time it happened at. */
@@ -103,8 +108,9 @@ export function useLiveCount(countId: number, initial: CountState | undefined) {
         join.current();
         break;
       }
-      added.push({ event: e, t: tAt(s, e.at) });
+      const before = s;
       s = reduce(s, e);
+      added.push({ event: e, t: logT(before, s, e) });
     }
     if (added.length === 0) return;
     stateRef.current = s;

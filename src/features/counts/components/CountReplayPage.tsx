@@ -1,0 +1,188 @@
+import { useQuery } from '@tanstack/react-query';
+import { format } from 'date-fns';
+import { useEffect, useMemo, useState } from 'react';
+import { Link, useParams, useSearchParams } from 'react-router-dom';
+import { Button } from '../../../components/ui/Button';
+import { Notice } from '../../../components/ui/Notice';
+import { Loading, Page } from '../../../components/ui/Page';
+import type { CountEventDto } from '../../../contract/count';
+import { HOLD_CATEGORY_LABELS, type CountEvent } from '../../../domain/count/events';
+import { reduce, stateAt } from '../../../domain/count/reduce';
+import { initialCountState, tAt } from '../../../domain/count/state';
+import { api, errorMessage } from '../../../lib/api';
+import { countKeys } from '../api/keys';
+import { logT, type LogEntry } from '../hooks/useLiveCount';
+import { BigClock, CountLog, HoldBanner, PollTable, StatusLine, StepCard } from './CountParts';
+
+const SPEEDS = [1, 10, 60] as const;
+const TICK_MS = 250;
+
+type Mark = { kind: 'hold' | 'poll' | 'redline' | 'recycle' | 'scrub'; at: number };
+
+function marksOf(events: readonly CountEvent[]): Mark[] {
+  const out: Mark[] = [];
+  for (const e of events) {
+    if (e.type === 'hold:called') out.push({ kind: 'hold', at: e.at });
+    else if (e.type === 'poll:opened') out.push({ kind: 'poll', at: e.at });
+    else if (e.type === 'reading:recorded' && !e.payload.inLimits) out.push({ kind: 'redline', at: e.at });
+    else if (e.type === 'count:recycled') out.push({ kind: 'recycle', at: e.at });
+    else if (e.type === 'count:scrubbed') out.push({ kind: 'scrub', at: e.at });
+  }
+  return out;
+}
+
+/**
+ * Replay: the count at any instant of its log, folded by the same reducer that ran it live (`stateAt`). A scrubber,
+ * play at 1x, 10x and 60x, jumps to the next hold, poll or redline, and a link to the instant shown.
+ */
+export function CountReplayPage() {
+  const { id } = useParams();
+  const countId = Number(id);
+  const events = useQuery({
+    queryKey: [...countKeys.detail(countId), 'events'],
+    queryFn: ({ signal }) => api.get<CountEventDto[]>(`/api/counts/${countId}/events`, { signal }),
+  });
+  if (events.isPending) return <Loading label="Reading the count log…" />;
+  if (events.isError)
+    return (
+      <Page title="Replay">
+        <Notice tone="danger" title="Could not read the count log">
+          <p>{errorMessage(events.error)}</p>
+        </Notice>
+      </Page>
+    );
+  if (events.data.length === 0) return <Page title="Replay">This count has no events.</Page>;
+  return <Replay countId={countId} events={events.data as unknown as CountEvent[]} />;
+}
+
+function Replay({ countId, events }: { countId: number; events: CountEvent[] }) {
+  const [params, setParams] = useSearchParams();
+  const first = events[0]!.at;
+  const last = events.at(-1)!.at;
+  const asked = Number(params.get('at'));
+  const [at, setAt] = useState(() => (Number.isFinite(asked) && asked >= first && asked <= last ? asked : last));
+  const [playing, setPlaying] = useState(false);
+  const [speed, setSpeed] = useState<(typeof SPEEDS)[number]>(10);
+
+  // Every event with the count time it happened at, folded once.
+  const entries = useMemo(() => {
+    let s = initialCountState();
+    return events.map((e): LogEntry => {
+      const before = s;
+      s = reduce(s, e);
+      return { event: e, t: logT(before, s, e) };
+    });
+  }, [events]);
+  const marks = useMemo(() => marksOf(events), [events]);
+  // Every hold of the whole count, shaded on the timeline.
+  const allHolds = useMemo(() => stateAt(events, last).holds, [events, last]);
+  const state = useMemo(() => stateAt(events, at), [events, at]);
+  const t = tAt(state, at);
+
+  useEffect(() => {
+    if (!playing) return;
+    const timer = setInterval(() => {
+      setAt((cur) => {
+        const next = Math.min(last, cur + TICK_MS * speed);
+        if (next >= last) setPlaying(false);
+        return next;
+      });
+    }, TICK_MS);
+    return () => clearInterval(timer);
+  }, [playing, speed, last]);
+
+  // The address names the instant shown (when still), so it can be sent to someone.
+  useEffect(() => {
+    if (playing) return;
+    const rounded = String(Math.round(at));
+    if (params.get('at') !== rounded) setParams((p) => ({ ...Object.fromEntries(p), at: rounded }), { replace: true });
+  }, [at, playing, params, setParams]);
+
+  const jump = (kind: Mark['kind'], direction: 1 | -1) => {
+    const list = marks.filter((m) => m.kind === kind);
+    const target = direction === 1 ? list.find((m) => m.at > at) : [...list].reverse().find((m) => m.at < at);
+    if (target) {
+      setPlaying(false);
+      setAt(target.at);
+    }
+  };
+  const plan = state.plan;
+  const current = plan
+    ? Object.values(state.currentSteps)
+        .flat()
+        .map((k) => plan.steps.find((s) => s.key === k))
+        .filter((s) => s !== undefined)
+    : [];
+  const span = Math.max(1, last - first);
+
+  return (
+    <Page title={`Replay: ${plan?.name ?? `count ${countId}`}`} kicker="Replay from the count log" actions={<Link to={`/counts/${countId}/report`}>Count report</Link>}>
+      <div className="flex flex-col gap-4">
+        <section aria-label="Instant" className="flex flex-col gap-2 rounded-md border-2 border-line bg-surface p-3">
+          <p className="text-lg font-bold">
+            {format(at, 'yyyy-MM-dd HH:mm:ss')} <span className="text-ink-muted">(server time)</span>
+          </p>
+          <div aria-hidden="true" className="relative h-4 w-full rounded bg-sunken">
+            {allHolds.map((h) => (
+              <span
+                key={h.holdId}
+                className="absolute top-0 h-4 border-x-2 border-danger bg-danger-wash"
+                style={{ left: `${((h.calledAt - first) / span) * 100}%`, width: `${(Math.max(1000, (h.endedAt ?? last) - h.calledAt) / span) * 100}%` }}
+                title={`${h.holdId}: ${HOLD_CATEGORY_LABELS[h.category]}`}
+              />
+            ))}
+            <span className="absolute top-[-4px] h-6 w-1 bg-ink" style={{ left: `${((at - first) / span) * 100}%` }} />
+          </div>
+          <label className="flex flex-col gap-1 font-bold">
+            Instant shown
+            <input
+              type="range"
+              min={first}
+              max={last}
+              step={1000}
+              value={at}
+              aria-valuetext={`${format(at, 'HH:mm:ss')}`}
+              onChange={(e) => {
+                setPlaying(false);
+                setAt(Number(e.target.value));
+              }}
+              className="min-h-11 w-full"
+            />
+          </label>
+          <div className="flex flex-wrap items-center gap-2">
+            <Button variant="primary" onClick={() => (playing ? setPlaying(false) : (setAt((cur) => (cur >= last ? first : cur)), setPlaying(true)))}>
+              {playing ? 'Pause' : 'Play'}
+            </Button>
+            <label className="flex items-center gap-2 font-bold">
+              Speed
+              <select className="min-h-11 rounded border-2 border-line bg-surface px-2" value={speed} onChange={(e) => setSpeed(Number(e.target.value) as (typeof SPEEDS)[number])}>
+                {SPEEDS.map((s) => (
+                  <option key={s} value={s}>
+                    {s}x
+                  </option>
+                ))}
+              </select>
+            </label>
+            <Button onClick={() => jump('hold', -1)}>Previous hold</Button>
+            <Button onClick={() => jump('hold', 1)}>Next hold</Button>
+            <Button onClick={() => jump('poll', 1)}>Next poll</Button>
+            <Button onClick={() => jump('redline', 1)}>Next redline</Button>
+            <Button onClick={() => jump('recycle', 1)}>Next recycle</Button>
+          </div>
+        </section>
+        <BigClock t={t} />
+        <StatusLine state={state} />
+        <HoldBanner state={state} />
+        {state.poll ? <PollTable poll={state.poll} now={at} /> : null}
+        <section aria-label="Steps at this instant" className="flex flex-col gap-2">
+          <h2 className="text-xl font-bold">Steps due at this instant</h2>
+          {current.length === 0 ? <p className="text-ink-muted">No step was due.</p> : null}
+          {current.map((s) => (
+            <StepCard key={s.key} step={s} stepState={state.steps[s.key]} plan={plan} />
+          ))}
+        </section>
+        <CountLog log={entries.filter((e) => e.event.at <= at)} plan={plan} />
+      </div>
+    </Page>
+  );
+}

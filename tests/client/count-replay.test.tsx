@@ -1,0 +1,54 @@
+import { screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { CREATED, kestrelPlan } from '../domain/count-fixture';
+import { ev, PROP, TC } from './count-fakes';
+import { fakeApi, json } from './fake-api';
+import { people, renderApp } from './render-app';
+
+afterEach(() => vi.unstubAllGlobals());
+
+// Started at CREATED + 2 s at T-30:00 (-1800 s); a hold from +100 s to the resume at +160 s.
+const events = [
+  ev(1, 'count:created', kestrelPlan(), { actor: TC }),
+  ev(2, 'count:started', {}, { actor: TC }),
+  ev(3, 'step:reached', { stepKey: 's1' }),
+  ev(4, 'hold:called', { holdId: 'h1', category: 'propellant', reason: 'LOX vent valve slow to close', source: 'person', calledByStation: 'PROP' }, { seconds: 100, actor: PROP, station: 'PROP' }),
+  ev(5, 'hold:cleared', { holdId: 'h1' }, { seconds: 150, actor: PROP, station: 'PROP' }),
+  ev(6, 'count:resumed', {}, { seconds: 160, actor: TC }),
+];
+
+function open(path: string) {
+  fakeApi({
+    'GET /api/auth/me': json(200, people.operator),
+    'GET /api/setup': json(200, { needsFirstAdmin: false, teamName: 'Tern Valley Rocketry Collective' }),
+    'GET /api/counts/5/events': json(200, events),
+  });
+  return renderApp(path);
+}
+
+describe('the replay', () => {
+  it('shows the count at the instant in the address, and jumps to the next hold with its reason and who called it', async () => {
+    const user = userEvent.setup();
+    open(`/counts/5/replay?at=${CREATED + 50_000}`);
+    // 48 s after the start: T-30:00 + 48 s.
+    expect(await screen.findByRole('timer')).toHaveTextContent('T-00:29:12');
+    expect(screen.queryByRole('region', { name: 'Hold' })).not.toBeInTheDocument();
+    const log = screen.getByRole('region', { name: 'Count log' });
+    expect(within(log).queryByText(/HOLD h1/)).not.toBeInTheDocument();
+
+    await user.click(screen.getByRole('button', { name: 'Next hold' }));
+    // The hold came 98 s after the start: T-28:22, and the clock stands there.
+    expect(screen.getByRole('timer')).toHaveTextContent('T-00:28:22');
+    const banner = screen.getByRole('region', { name: 'Hold' });
+    expect(within(banner).getByText('Propellant: LOX vent valve slow to close')).toBeInTheDocument();
+    expect(within(banner).getByText(/h1 called by PROP \(Rowan Fenn\)/)).toBeInTheDocument();
+    expect(within(screen.getByRole('region', { name: 'Count log' })).getByText(/HOLD h1 called by PROP/)).toBeInTheDocument();
+  });
+
+  it('without an instant shows the end of the log: counting again after the resume', async () => {
+    open('/counts/5/replay');
+    expect(await screen.findByRole('timer')).toHaveTextContent('T-00:28:22');
+    expect(screen.getByText('COUNTING')).toBeInTheDocument();
+  });
+});
