@@ -108,7 +108,8 @@ function reachDrafts(state: CountState, step: PlanStep): EventDraft[] {
 
 interface Due {
   at: number;
-  drafts: EventDraft[];
+  /** Made only for the candidate that wins: building a poll's closing drafts walks every station. */
+  drafts: () => EventDraft[];
 }
 
 /** The earliest thing the clock will make happen from this state, whenever that is. */
@@ -120,16 +121,16 @@ function nextDue(state: CountState): Due | null {
 
   if (state.poll) {
     const at = state.poll.openedAt + state.poll.timeoutSeconds * 1000;
-    candidates.push({ at, drafts: closePollDrafts(state) });
+    candidates.push({ at, drafts: () => closePollDrafts(state) });
   }
   if (state.builtInHold) {
     const { stepKey, startedAt, durationSeconds } = state.builtInHold;
-    candidates.push({ at: startedAt + durationSeconds * 1000, drafts: [draft('builtInHold:ended', { stepKey, early: false })] });
+    candidates.push({ at: startedAt + durationSeconds * 1000, drafts: () => [draft('builtInHold:ended', { stepKey, early: false })] });
   }
   if (!state.poll) {
     // A poll step reached while another poll was open asks its question as soon as that one closes.
     const waiting = countedSteps(plan).find((s) => s.kind === 'poll' && state.steps[s.key]?.status === 'current' && !hasPolled(state, s.key));
-    if (waiting) candidates.push({ at: floor, drafts: [pollOpenDraft(state, { stations: waiting.stations, stepKey: waiting.key, question: waiting.instruction })] });
+    if (waiting) candidates.push({ at: floor, drafts: () => [pollOpenDraft(state, { stations: waiting.stations, stepKey: waiting.key, question: waiting.instruction })] });
   }
   const { clock } = state;
   if (clock.running && clock.anchorAt !== null) {
@@ -137,8 +138,8 @@ function nextDue(state: CountState): Due | null {
     const times = reachTimes(plan);
     const step = countedSteps(plan).find((s) => state.steps[s.key]?.status === 'pending');
     const stepT = step ? times.get(step.key)! : null;
-    const stepDue = step && stepT !== null ? { at: when(stepT), drafts: reachDrafts(state, step) } : null;
-    const t0Due = state.t0At === null ? { at: when(0), drafts: [draft('t0:reached', {})] } : null;
+    const stepDue = step && stepT !== null ? { at: when(stepT), drafts: () => reachDrafts(state, step) } : null;
+    const t0Due = state.t0At === null ? { at: when(0), drafts: () => [draft('t0:reached', {})] } : null;
     // At the same instant, steps at or before T-0 come before T-0 itself.
     const ordered = stepT !== null && stepT > 0 ? [t0Due, stepDue] : [stepDue, t0Due];
     for (const d of ordered) if (d) candidates.push(d);
@@ -161,7 +162,7 @@ export function dueEvents(state: CountState, nowMs: number): DueDraft[] {
   for (let guard = 0; guard < 100_000; guard++) {
     const next = nextDue(s);
     if (!next || next.at > nowMs) break;
-    const stamped = next.drafts.map((d): DueDraft => ({ ...d, at: next.at }));
+    const stamped = next.drafts().map((d): DueDraft => ({ ...d, at: next.at }));
     out.push(...stamped);
     s = replay(stampEvents(s.lastSeq, stamped, next.at), s);
   }

@@ -277,7 +277,9 @@ const handlers: { [T in CountEventType]: Handler<T> } = {
 export function reduce(state: CountState, event: CountEvent): CountState {
   if (event.seq <= state.lastSeq) return state;
   const handler = handlers[event.type] as Handler<CountEventType>;
-  const next = withCurrentSteps(handler(state, event));
+  const handled = handler(state, event);
+  // currentSteps follows the steps: recomputed only when an event replaced them (most events, answers and presence, do not).
+  const next = handled.steps === state.steps && handled.plan === state.plan ? handled : withCurrentSteps(handled);
   return { ...next, hold: blockingHold(next), lastSeq: event.seq, lastAt: event.at };
 }
 
