@@ -4,6 +4,9 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO, signInWithCookie } from '../helpers/api';
 import { startTestApp, type TestApp, type TestClient } from '../helpers/app';
 import { connected, demoRevision, eventRecorder, openSocket } from '../helpers/counts';
+import type { CountEvent } from '../../src/domain/count/events';
+import { reduce, replay } from '../../src/domain/count/reduce';
+import { tAt, type CountState } from '../../src/domain/count/state';
 
 /**
  * The live count over socket.io with several real clients, each with its own signed-in session: the conductor,
@@ -157,5 +160,51 @@ describe('holds and presence', () => {
     const { id } = await startedCount();
     const joined = await (await person(DEMO.data)).socket.timeout(5000).emitWithAck('count:join', { countId: id + 1000, sinceSeq: 0 });
     expect(joined.error).toBe('There is no such count.');
+  });
+});
+
+describe('replay against the live count', () => {
+  it('the state the server replays at each instant equals what an auditor folded from the broadcasts then', async () => {
+    const { id, tc, prop, pad } = await startedCount();
+    const auditor = await person(DEMO.auditor);
+    const joined = await auditor.socket.timeout(5000).emitWithAck('count:join', { countId: id, sinceSeq: 0 });
+    // The auditor folds what it receives with the domain reducer, as the watch view does, and keeps each state.
+    let live = replay(joined.data.events as CountEvent[]);
+    const seen = new Map<number, { at: number; state: CountState }>();
+    for (const e of joined.data.events as CountEvent[]) seen.set(e.seq, { at: e.at, state: replay((joined.data.events as CountEvent[]).filter((x) => x.seq <= e.seq)) });
+    auditor.socket.on('count:events', (list: CountEvent[]) => {
+      for (const e of list) {
+        live = reduce(live, e);
+        seen.set(e.seq, { at: e.at, state: live });
+      }
+    });
+
+    const opened = await send(tc.socket, id, { type: 'poll:open', stations: ['PROP', 'PAD'], timeoutSeconds: 600 });
+    const pollId = opened.data!.events[0]!.payload.pollId;
+    await send(prop.socket, id, { type: 'poll:answer', pollId, station: 'PROP', answer: 'go' });
+    await send(pad.socket, id, { type: 'poll:answer', pollId, station: 'PAD', answer: 'nogo', reason: 'Igniter continuity out of band' });
+    const hold = (await conductorHttp.get(`/api/counts/${id}/state`).expect(200)).body.hold;
+    await send(tc.socket, id, { type: 'hold:clear', holdId: hold.holdId });
+    const resumed = await send(tc.socket, id, { type: 'count:resume' });
+    const lastSeq = resumed.data!.events.at(-1)!.seq;
+    await auditor.events.waitFor((e) => e.seq === lastSeq);
+
+    // At each event's instant (the last event of that instant), the server's replay and the live fold agree.
+    const instants = [...new Set([...seen.values()].map((s) => s.at))];
+    expect(instants.length).toBeGreaterThan(5);
+    for (const at of instants) {
+      const lastAtInstant = [...seen.entries()].filter(([, s]) => s.at === at).sort(([a], [b]) => b - a)[0]![1].state;
+      const replayed = (await conductorHttp.get(`/api/counts/${id}/state?at=${at}`).expect(200)).body;
+      expect({ seq: replayed.lastSeq, status: replayed.status, t: replayed.clock.tSeconds, running: replayed.clock.running, hold: replayed.hold?.reason ?? null, poll: replayed.poll?.pollId ?? null }).toEqual({
+        seq: lastAtInstant.lastSeq,
+        status: lastAtInstant.status,
+        t: tAt(lastAtInstant, at),
+        running: lastAtInstant.clock.running,
+        hold: lastAtInstant.hold?.reason ?? null,
+        poll: lastAtInstant.poll?.pollId ?? null,
+      });
+    }
+    // The hold from PAD's NO-GO is in the replay with its reason.
+    expect([...seen.values()].some((s) => s.state.hold?.reason.includes('PAD no-go: Igniter continuity out of band'))).toBe(true);
   });
 });
