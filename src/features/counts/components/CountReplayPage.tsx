@@ -114,6 +114,8 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
         .filter((s) => s !== undefined)
     : [];
   const span = Math.max(1, last - first);
+  /** Where an instant lies along the timeline, 0 to 100. */
+  const pct = (ms: number) => Math.min(100, Math.max(0, ((ms - first) / span) * 100));
 
   return (
     <Page title={`Replay: ${plan?.name ?? `count ${countId}`}`} kicker="Replay from the count log" actions={<Link to={`/counts/${countId}/report`}>Count report</Link>}>
@@ -127,11 +129,11 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
               <span
                 key={h.holdId}
                 className="absolute top-0 h-4 border-x-2 border-danger bg-danger-wash"
-                style={{ left: `${((h.calledAt - first) / span) * 100}%`, width: `${(Math.max(1000, (h.endedAt ?? last) - h.calledAt) / span) * 100}%` }}
+                style={{ left: `${pct(h.calledAt)}%`, width: `${Math.max(0.5, pct(h.endedAt ?? last) - pct(h.calledAt))}%`, maxWidth: `${100 - pct(h.calledAt)}%` }}
                 title={`${h.holdId}: ${HOLD_CATEGORY_LABELS[h.category]}`}
               />
             ))}
-            <span className="absolute top-[-4px] h-6 w-1 bg-ink" style={{ left: `${((at - first) / span) * 100}%` }} />
+            <span className="absolute top-[-4px] h-6 w-1 bg-ink" style={{ left: `min(${pct(at)}%, 100% - 0.25rem)` }} />
           </div>
           <label className="flex flex-col gap-1 font-bold">
             Instant shown
