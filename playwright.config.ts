@@ -27,11 +27,13 @@ export default defineConfig({
   retries: 0,
   timeout: 45_000,
   expect: { timeout: 8_000 },
-  reporter: process.env.CI ? [['list']] : [['list']],
+  reporter: [['list']],
   use: {
     baseURL,
     launchOptions: chromium,
-    trace: 'retain-on-failure',
+    // CI keeps no files for anyone to open, and recording a trace of every test costs time on two cores: there a
+    // failure leaves its page snapshot (error-context.md), which .ci/run prints.
+    trace: process.env.CI ? 'off' : 'retain-on-failure',
     screenshot: 'only-on-failure',
   },
   projects: [

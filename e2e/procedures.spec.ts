@@ -190,7 +190,12 @@ test.describe('safety officer', () => {
     void consoleErrors;
     await page.goto(`/procedures/${procedureId}/revisions/1`);
     await page.getByRole('button', { name: 'Sign as safety officer' }).click();
-    await page.getByRole('button', { name: 'Confirm signature' }).click();
+    // Wait for the server's answer itself, so a refusal shows its reason here instead of as a missing notice.
+    const [signed] = await Promise.all([
+      page.waitForResponse((r) => r.request().method() === 'POST' && r.url().endsWith(`/api/procedures/${procedureId}/revisions/1/signoffs`)),
+      page.getByRole('button', { name: 'Confirm signature' }).click(),
+    ]);
+    expect(signed.status(), await signed.text()).toBe(201);
     await expect(page.getByText('Revision 1 is released')).toBeVisible();
     await expect(page.getByText('Revision 1: Released')).toBeVisible();
     await expect(page.getByText('Can be counted')).toBeVisible();
