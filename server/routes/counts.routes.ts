@@ -9,29 +9,19 @@ import {
   type CountSummaryDto,
 } from '../../src/contract/count';
 import type { CountCommand } from '../../src/domain/count/commands';
-import type { CountPlan, CrewStation, EventDraft } from '../../src/domain/count/events';
-import {
-  buildPlanSteps,
-  DEFAULT_POLL_TIMEOUT_SECONDS,
-  DEFAULT_RECYCLE_TO_SECONDS,
-  DEFAULT_TERMINAL_COUNT_SECONDS,
-  defaultStartT,
-  guessSafingPhaseKeys,
-  type PhaseWithCautions,
-} from '../../src/domain/count/plan';
+import type { EventDraft } from '../../src/domain/count/events';
 import { stateAt } from '../../src/domain/count/reduce';
 import { countReport } from '../../src/domain/count/report';
 import { tAt, type CountState } from '../../src/domain/count/state';
-import type { ResolvedCaution } from '../../src/domain/procedures/cautions';
-import { neededStations } from '../../src/domain/procedures/manning';
 import type { CountService } from '../counts/service';
 import { toCsv, toJsonl } from '../counts/export';
 import type { ChainedEvent } from '../../src/domain/count/chain';
 import { badRequest, conflict, HttpError, notFound } from '../http/errors';
 import { route } from '../http/route';
-import { Count, CrewAssignment, CrewPlan, Procedure, ProcedureRevision, Station, User } from '../models';
+import { Count, Procedure, ProcedureRevision, User } from '../models';
 import { countableRevision } from '../procedures/countable';
-import { cautionContext, currentCautions, findProcedure, revisionsOf } from '../procedures/procedures';
+import { buildCountPlan } from '../counts/plan';
+import { findProcedure, revisionsOf } from '../procedures/procedures';
 
 const stateQuerySchema = z.strictObject({
   at: z
@@ -74,20 +64,6 @@ function summary(row: Count, state: CountState, procedureName: string, createdBy
     closedAt: iso(state.closedAt),
     windowEnd: iso(plan?.windowEnd ?? null),
   };
-}
-
-async function crewFromPlan(teamId: number, procedureId: number): Promise<{ station: string; userIds: number[] }[]> {
-  // The newest crew plan for this procedure, else the newest for a test day, else the team's newest.
-  const plans = await CrewPlan.findAll({
-    where: { teamId },
-    include: [{ model: CrewAssignment, as: 'assignments', include: [{ model: Station, as: 'station' }] }],
-    order: [['id', 'DESC']],
-  });
-  const plan = plans.find((p) => p.procedureId === procedureId) ?? plans.find((p) => p.procedureId === null) ?? plans[0];
-  if (!plan) return [];
-  const by = new Map<string, number[]>();
-  for (const a of plan.assignments ?? []) by.set(a.station!.code, [...(by.get(a.station!.code) ?? []), a.userId]);
-  return [...by].map(([station, userIds]) => ({ station, userIds }));
 }
 
 export function countRoutes({ counts }: { counts: CountService }) {
@@ -139,52 +115,7 @@ export function countRoutes({ counts }: { counts: CountService }) {
         if (!rev) throw badRequest('That revision is not one of this procedure’s.', 'validation_failed', [{ path: 'revisionId', message: 'Not a revision of this procedure.' }]);
         await countableRevision(teamId, p.id, rev.number);
 
-        const stations = await Station.findAll({ where: { teamId } });
-        const known = new Map(stations.map((s) => [s.code, s]));
-        const crewInput = body.crew ?? (await crewFromPlan(teamId, p.id));
-        const problems: { path: string; message: string }[] = [];
-        const people = await User.findAll({ where: { teamId, active: true }, attributes: ['id', 'name'] });
-        const nameOf = new Map(people.map((u) => [u.id, u.name]));
-        crewInput.forEach((c, i) => {
-          if (!known.has(c.station)) problems.push({ path: `crew.${i}.station`, message: `There is no station with the short code ${c.station}.` });
-          c.userIds.forEach((id, j) => {
-            if (!nameOf.has(id)) problems.push({ path: `crew.${i}.userIds.${j}`, message: 'Not an active member of your team.' });
-          });
-        });
-        if (problems.length) throw badRequest('Some of the crew cannot be put on this count.', 'validation_failed', problems);
-        const crew: CrewStation[] = crewInput.map((c) => ({ station: c.station, userIds: c.userIds, names: c.userIds.map((id) => nameOf.get(id)!) }));
-
-        const phaseKeys = rev.phases.map((ph) => ph.key);
-        const safing = body.safingPhaseKeys ?? guessSafingPhaseKeys(rev.phases);
-        safing.forEach((k, i) => {
-          if (!phaseKeys.includes(k)) problems.push({ path: `safingPhaseKeys.${i}`, message: `There is no phase ${k} in this revision.` });
-        });
-        if (problems.length) throw badRequest('Some phases are not in this revision.', 'validation_failed', problems);
-
-        // The cautions as signed at release (a propellant's PPE is among them, as a note), and the station's own PPE.
-        const signed: Record<string, ResolvedCaution[]> = rev.releasedCautions ?? currentCautions(rev.phases, await cautionContext(teamId));
-        const phases: PhaseWithCautions[] = rev.phases.map((ph) => ({
-          ...ph,
-          steps: ph.steps.map((st) => ({ ...st, cautions: signed[st.key] ?? [], ppe: [...(known.get(st.station)?.defaultPpe ?? [])] })),
-        }));
-        const steps = buildPlanSteps(phases);
-        const windowEnd = body.windowEnd ? Date.parse(body.windowEnd) : null;
-        const planBase: Omit<CountPlan, 'startTSeconds'> = {
-          name: body.name,
-          procedureId: p.id,
-          revisionId: rev.id,
-          revisionNumber: rev.number,
-          steps,
-          safingPhaseKeys: safing,
-          crew,
-          terminalCountSeconds: body.terminalCountSeconds ?? DEFAULT_TERMINAL_COUNT_SECONDS,
-          recycleToSeconds: body.recycleToSeconds ?? DEFAULT_RECYCLE_TO_SECONDS,
-          windowEnd,
-          pollTimeoutSeconds: body.pollTimeoutSeconds ?? DEFAULT_POLL_TIMEOUT_SECONDS,
-        };
-        const plan: CountPlan = { ...planBase, startTSeconds: defaultStartT(steps, safing) };
-        const unmanned = neededStations(rev.phases, p.stations).filter((code) => !crew.some((c) => c.station === code));
-        void unmanned;
+        const { plan, windowEnd } = await buildCountPlan(teamId, p, rev, body);
 
         const row = await Count.create({ teamId, procedureId: p.id, revisionId: rev.id, name: body.name, windowEnd, createdById: user!.id });
         const created: EventDraft = { type: 'count:created', payload: plan, actor: { userId: user!.id, name: user!.name }, station: null };

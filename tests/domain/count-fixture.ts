@@ -2,21 +2,7 @@
  * A count of the Kestrel-2 hot fire at Marsh End, run the way the server runs one: before each command, and
  * whenever time passes, the events the clock made due are appended; then `decide` answers the command.
  */
-import type { Role } from '../../src/domain/people/roles';
-import {
-  decide,
-  dueEvents,
-  initialCountState,
-  reduce,
-  stampEvents,
-  type CountCommand,
-  type CountEvent,
-  type CountPlan,
-  type CountState,
-  type Decision,
-  type EventDraft,
-  type PlanStep,
-} from '../../src/domain/count';
+import { CountSimulation, type CountPlan, type PlanStep, type SimPerson } from '../../src/domain/count';
 
 /** A fixed instant: the count is created here and started a minute later. */
 export const CREATED = 1_750_000_000_000;
@@ -77,12 +63,7 @@ export function kestrelPlan(overrides: Partial<CountPlan> = {}): CountPlan {
   };
 }
 
-export interface Person {
-  userId: number;
-  name: string;
-  roles: Role[];
-  mans: string[];
-}
+export type Person = SimPerson;
 
 export const conductor: Person = { userId: 1, name: 'Ines Marlow', roles: ['conductor'], mans: ['TC'] };
 export const prop: Person = { userId: 2, name: 'Tobias Renk', roles: ['operator'], mans: ['PROP'] };
@@ -91,42 +72,9 @@ export const daq: Person = { userId: 4, name: 'Pim Okafor', roles: ['operator'],
 export const safety: Person = { userId: 5, name: 'Ruth Aldane', roles: ['safety'], mans: [] };
 export const auditor: Person = { userId: 6, name: 'Colm Vesey', roles: ['auditor'], mans: [] };
 
-export class Sim {
-  events: CountEvent[] = [];
-  state: CountState = initialCountState();
-
+export class Sim extends CountSimulation {
   constructor(plan: CountPlan = kestrelPlan()) {
-    this.append([{ type: 'count:created', payload: plan, actor: { userId: 1, name: 'Ines Marlow' }, station: null }], CREATED);
-  }
-
-  append(drafts: readonly EventDraft[], now: number): CountEvent[] {
-    const stamped = stampEvents(this.state.lastSeq, drafts, now);
-    for (const e of stamped) {
-      this.events.push(e);
-      this.state = reduce(this.state, e);
-    }
-    return stamped;
-  }
-
-  /** Let time pass to `now`: append what the clock made due. */
-  advance(now: number): CountEvent[] {
-    return this.append(dueEvents(this.state, now), now);
-  }
-
-  /** As the server does: catch up to `now`, decide, append what was decided. */
-  command(who: Person, command: CountCommand, now: number): Decision {
-    this.advance(now);
-    const d = decide(this.state, command, { now, actor: { userId: who.userId, name: who.name, roles: who.roles }, mannedStations: who.mans });
-    if (d.ok) this.append(d.events, now);
-    return d;
-  }
-
-  /** A command that must be accepted. */
-  ok(who: Person, command: CountCommand, now: number): CountEvent[] {
-    const before = this.events.length;
-    const d = this.command(who, command, now);
-    if (!d.ok) throw new Error(`refused ${command.type}: ${d.error}`);
-    return this.events.slice(before);
+    super(plan, { userId: 1, name: 'Ines Marlow' }, CREATED);
   }
 
   /** Start at START and get through the poll at T-10:00 with everyone go (the poll opens at START + 1800 s). */

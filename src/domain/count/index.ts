@@ -8,3 +8,4 @@ export * from './commands';
 export * from './projection';
 export * from './clockSync';
 export * from './report';
+export * from './simulate';
