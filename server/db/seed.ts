@@ -2,6 +2,7 @@ import type { Role } from '../../src/domain/people/roles';
 import { hashPassword } from '../auth/passwords';
 import { Team, User } from '../models';
 import { seedDemoHazards, seedDemoMatrix } from './seed-hazards';
+import { seedDemoCounts } from './seed-counts';
 import { seedDemoProcedures } from './seed-procedures';
 
 /** Demo sign-ins for the invented team; for trying Holdfire only, never for a real test site. */
@@ -31,6 +32,7 @@ export async function seedDemo(options: { passwordCost?: number } = {}): Promise
     await seedDemoHazards(team.id, users, transaction);
     await seedDemoMatrix(team.id, users, transaction);
     await seedDemoProcedures(team.id, users, transaction);
+    await seedDemoCounts(team.id, users, transaction);
   });
   return true;
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { decide, initialCountState, redlineReason, reduce, replay, type CountEvent, type CountState } from '../../src/domain/count';
-import { at, auditor, conductor, daq, prop, range, safety, Sim, START } from './count-fixture';
+import { at, auditor, conductor, daq, kestrelPlan, prop, range, safety, Sim, START } from './count-fixture';
 
 function started(): Sim {
   const sim = new Sim();
@@ -149,6 +149,49 @@ describe('scrub, completion and safing', () => {
     sim.ok(conductor, { type: 'step:complete', stepKey: 'x2' }, at(2510));
     sim.ok(conductor, { type: 'count:close-safing' }, at(2520));
     expect(sim.state).toMatchObject({ status: 'complete', completedAt: at(2430), closedAt: at(2520) });
+  });
+});
+
+describe('a go/no-go poll in safing', () => {
+  /** The fixture's plan with a last safing step that is a poll: open the range. */
+  function withSafingPoll(): Sim {
+    const base = kestrelPlan();
+    const poll = { ...base.steps[base.steps.length - 1]!, key: 'x3', kind: 'poll' as const, station: 'TC', instruction: 'Go/no-go to open the range', stations: ['PROP', 'RANGE'], index: base.steps.length };
+    const sim = new Sim(kestrelPlan({ steps: [...base.steps, poll] }));
+    sim.ok(conductor, { type: 'count:start' }, START);
+    sim.ok(conductor, { type: 'count:scrub', category: 'weather', reason: 'Crosswind above the stand limit' }, at(30));
+    return sim;
+  }
+
+  it('is asked by the conductor when safing is ready for it, and its pass completes the step so safing can close', () => {
+    const sim = withSafingPoll();
+    expect(sim.state.status).toBe('safing');
+    // Nothing opens it by itself: the stand is not safe yet when safing starts.
+    sim.advance(at(600));
+    expect(sim.state.poll).toBeNull();
+    expect(sim.command(prop, { type: 'poll:open', stepKey: 'x3' }, at(610))).toMatchObject({ ok: false, status: 403 });
+    sim.ok(prop, { type: 'step:complete', stepKey: 'x1' }, at(620));
+    sim.ok(conductor, { type: 'step:complete', stepKey: 'x2' }, at(630));
+    sim.ok(conductor, { type: 'poll:open', stepKey: 'x3' }, at(640));
+    const pollId = sim.state.poll!.pollId;
+    sim.ok(prop, { type: 'poll:answer', pollId, station: 'PROP', answer: 'go' }, at(650));
+    sim.ok(range, { type: 'poll:answer', pollId, station: 'RANGE', answer: 'go' }, at(655));
+    expect(sim.state.poll).toBeNull();
+    expect(sim.state.steps.x3).toMatchObject({ status: 'done', completedAt: at(655) });
+    sim.ok(conductor, { type: 'count:close-safing' }, at(660));
+    expect(sim.state.status).toBe('scrubbed');
+  });
+
+  it('times out in safing without holding anything, and can be asked again', () => {
+    const sim = withSafingPoll();
+    sim.ok(conductor, { type: 'poll:open', stepKey: 'x3', timeoutSeconds: 30 }, at(100));
+    sim.advance(at(200));
+    expect(sim.state.polls.at(-1)).toMatchObject({ stepKey: 'x3', result: 'nogo', missing: ['PROP', 'RANGE'], closedAt: at(130) });
+    expect(sim.state.status).toBe('safing');
+    expect(sim.state.holds).toEqual([]);
+    expect(sim.state.steps.x3!.status).toBe('current');
+    sim.ok(conductor, { type: 'poll:open', stepKey: 'x3' }, at(210));
+    expect(sim.state.poll).toMatchObject({ stepKey: 'x3', openedAt: at(210) });
   });
 });
 

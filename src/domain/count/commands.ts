@@ -114,7 +114,8 @@ export function decide(state: CountState, command: CountCommand, ctx: CommandCon
     }
 
     case 'poll:open': {
-      const no = conductorOnly('opens a go/no-go poll') ?? mustBeLive();
+      // In safing too: a safing phase may end with a go/no-go (to open the range); the conductor asks it when ready.
+      const no = conductorOnly('opens a go/no-go poll') ?? (state.status === 'safing' ? null : mustBeLive());
       if (no) return no;
       if (state.poll) {
         const left = Math.max(0, Math.ceil((state.poll.openedAt + state.poll.timeoutSeconds * 1000 - ctx.now) / 1000));

@@ -115,7 +115,8 @@ interface Due {
 /** The earliest thing the clock will make happen from this state, whenever that is. */
 function nextDue(state: CountState): Due | null {
   const plan = state.plan;
-  if (!plan || !isLive(state)) return null;
+  // In safing the clock stands still, but a safing poll still times out.
+  if (!plan || (!isLive(state) && !(state.status === 'safing' && state.poll))) return null;
   const floor = state.lastAt ?? 0;
   const candidates: Due[] = [];
 
@@ -127,7 +128,7 @@ function nextDue(state: CountState): Due | null {
     const { stepKey, startedAt, durationSeconds } = state.builtInHold;
     candidates.push({ at: startedAt + durationSeconds * 1000, drafts: () => [draft('builtInHold:ended', { stepKey, early: false })] });
   }
-  if (!state.poll) {
+  if (!state.poll && isLive(state)) {
     // A poll step reached while another poll was open asks its question as soon as that one closes.
     const waiting = countedSteps(plan).find((s) => s.kind === 'poll' && state.steps[s.key]?.status === 'current' && !hasPolled(state, s.key));
     if (waiting) candidates.push({ at: floor, drafts: () => [pollOpenDraft(state, { stations: waiting.stations, stepKey: waiting.key, question: waiting.instruction })] });

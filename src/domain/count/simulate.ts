@@ -9,7 +9,7 @@ import { decide, type CountCommand, type Decision } from './commands';
 import { dueEvents, nextDueAt } from './due';
 import { draft, stampEvents, type Actor, type CountEvent, type CountPlan, type EventDraft, type PlanStep } from './events';
 import { reduce } from './reduce';
-import { initialCountState, type CountState } from './state';
+import { initialCountState, tAt, type CountState } from './state';
 
 export interface SimPerson {
   userId: number;
@@ -49,12 +49,11 @@ export class CountSimulation {
     this.append([{ type: 'count:created', payload: plan, actor: creator, station: null }], createdAt);
   }
 
-  /** The instant of the last event. */
-  get now(): number {
-    return this.state.lastAt ?? 0;
-  }
+  /** The simulation's clock: the latest instant it was taken to (events or not). */
+  now = 0;
 
   append(drafts: readonly EventDraft[], now: number): CountEvent[] {
+    this.now = Math.max(this.now, now);
     const stamped = stampEvents(this.state.lastSeq, drafts, now);
     for (const e of stamped) {
       this.events.push(e);
@@ -65,6 +64,7 @@ export class CountSimulation {
 
   /** Let time pass to `now`: append what the clock made due. */
   advance(now: number): CountEvent[] {
+    this.now = Math.max(this.now, now);
     return this.append(dueEvents(this.state, now), now);
   }
 
@@ -91,6 +91,18 @@ export class CountSimulation {
       p.mans.filter((s) => this.state.stations[s]).map((station) => draft('station:connected', { station }, { actor: { userId: p.userId, name: p.name }, station })),
     );
     return this.append(drafts, now);
+  }
+
+  /** The crew works the count until the clock reads `tSeconds` (or the count ends). */
+  crewToT(tSeconds: number, crew: readonly SimPerson[], options: CrewOptions = {}): void {
+    for (let guard = 0; guard < 100_000; guard++) {
+      if (this.state.status === 'scrubbed' || this.state.status === 'complete') return;
+      if (tAt(this.state, this.now) >= tSeconds) return;
+      // Where the clock would be at tSeconds if nothing stopped it; built-in holds and holds stop it on the way.
+      const ahead = this.state.clock.running ? Math.max(1000, (tSeconds - tAt(this.state, this.now)) * 1000) : 5000;
+      this.crewUntil(this.now + Math.min(ahead, 60_000), crew, options);
+    }
+    throw new Error(`the clock never reached ${tSeconds}`);
   }
 
   /**

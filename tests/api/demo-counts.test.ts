@@ -1,0 +1,82 @@
+/**
+ * The demo counts are written by the seed through the same domain functions as a live count. The times below are
+ * worked by hand from the seed's story (server/db/seed-counts.ts) and the demo procedure's plan: it starts at
+ * T-2:00:00 with built-in holds of 10 min (T-30:00) and 5 min (T-5:00).
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO } from '../helpers/api';
+import { startTestApp, type TestApp, type TestClient } from '../helpers/app';
+
+let t: TestApp;
+let auditor: TestClient;
+let counts: { id: number; name: string; status: string }[];
+
+beforeAll(async () => {
+  t = await startTestApp();
+  auditor = await t.client(DEMO.auditor);
+  counts = (await auditor.get('/api/counts').expect(200)).body;
+});
+afterAll(() => t.stop());
+
+function idOf(name: string): number {
+  const c = counts.find((x) => x.name === name);
+  if (!c) throw new Error(`no demo count ${name}`);
+  return c.id;
+}
+const report = async (name: string) => (await auditor.get(`/api/counts/${idOf(name)}/report`).expect(200)).body;
+
+describe('the demo counts', () => {
+  it('are three finished counts whose logs verify', async () => {
+    expect(counts.map((c) => [c.name, c.status]).sort()).toEqual([
+      ['Kestrel-2 static fire 1', 'scrubbed'],
+      ['Kestrel-2 static fire 2', 'complete'],
+      ['Kestrel-2 static fire 3', 'complete'],
+    ]);
+    for (const c of counts) {
+      const verdict = (await auditor.get(`/api/counts/${c.id}/verify`).expect(200)).body;
+      expect(verdict, c.name).toMatchObject({ ok: true });
+      expect(verdict.count).toBeGreaterThan(40);
+    }
+  });
+
+  it('static fire 1 was scrubbed for the wind after its reading crossed the redline', async () => {
+    const r = await report('Kestrel-2 static fire 1');
+    expect(r.actualT0At).toBeNull();
+    expect(r.redlines.map((x: { stepKey: string; value: number }) => [x.stepKey, x.value])).toEqual([
+      ['wind', 12.5],
+      ['wind', 11.8],
+      ['wind', 12.9],
+    ]);
+    const state = (await auditor.get(`/api/counts/${idOf('Kestrel-2 static fire 1')}/state`).expect(200)).body;
+    expect(state.scrub).toMatchObject({ category: 'weather', by: { name: 'Priya Halloran' } });
+    expect(state.status).toBe('scrubbed');
+  });
+
+  it('static fire 2 fired after two holds and a recycle from the terminal count', async () => {
+    const r = await report('Kestrel-2 static fire 2');
+    // Started 06:45:00Z at T-2:00:00: 120 min of count and 15 min of built-in holds puts T-0 at 09:00:00Z.
+    expect(r.plannedT0At).toBe(Date.parse('2025-05-31T09:00:00Z'));
+    expect(r.actualT0At).toBeGreaterThan(r.plannedT0At);
+    expect(r.holds.count).toBeGreaterThanOrEqual(2);
+    expect(r.holds.list.map((h: { calledByStation: string; calledAtT: number }) => [h.calledByStation, h.calledAtT])).toEqual([
+      ['RANGE', -1420],
+      ['DATA', -430],
+      ['PAD', -41],
+    ]);
+    expect(r.recycles).toEqual([expect.objectContaining({ fromT: -41, toT: -600 })]);
+    expect(r.polls.passed).toBeGreaterThan(0);
+  });
+
+  it('static fire 3 held on a fuel-pressure redline, cleared it and fired', async () => {
+    const r = await report('Kestrel-2 static fire 3');
+    expect(r.redlines).toEqual([expect.objectContaining({ stepKey: 'fuel-pressure', value: 36.4, unit: 'bar', t: -810 })]);
+    expect(r.holds.list).toEqual([expect.objectContaining({ source: 'redline', calledAtT: -810, clearedAt: expect.any(Number) })]);
+    expect(r.actualT0At).not.toBeNull();
+  });
+
+  it('a restart leaves the finished demo counts alone', async () => {
+    await t.holdfire.counts.recover();
+    const again = (await auditor.get('/api/counts').expect(200)).body as { name: string; status: string }[];
+    expect(again.map((c) => c.status).sort()).toEqual(['complete', 'complete', 'scrubbed']);
+  });
+});
