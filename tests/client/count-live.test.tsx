@@ -74,6 +74,17 @@ describe('the conductor’s controls', () => {
   });
 });
 
+describe('the conductor in safing', () => {
+  it('can still open a poll (a safing go/no-go) and close safing, but not call a hold', async () => {
+    const events = [...startedCount()];
+    events.push(ev(events.length + 1, 'count:scrubbed', { category: 'weather', reason: 'Crosswind above the stand limit' }, { actor: { userId: 1, name: 'Avery Quill' } }));
+    open(people.admin, events);
+    expect(await screen.findByRole('button', { name: 'Close safing' })).toBeInTheDocument();
+    expect(screen.getByRole('button', { name: 'Open a poll' })).toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'Call a hold' })).not.toBeInTheDocument();
+  });
+});
+
 describe('the clock on a device whose own clock is wrong', () => {
   it('shows the server’s T from the offset the clock:sync exchange measured, not the device’s time', async () => {
     // The count started at CREATED + 2 s at T-30:00; on the server it is now 100 s later: T-28:20.

@@ -202,7 +202,7 @@ export function ConductorConsole({ live, me, manned }: { live: LiveCount; me: Me
             <TextField label="Start at" hint={T_MINUS_HINT} value={startText} onChange={(e) => setStartAt(e.target.value)} error={startSeconds === undefined ? T_MINUS_HINT : undefined} />
           </ConfirmButton>
         ) : null}
-        {live_ && !state.poll && form !== 'poll' ? <Button onClick={() => setForm('poll')}>Open a poll</Button> : null}
+        {(live_ || state.status === 'safing') && !state.poll && form !== 'poll' ? <Button onClick={() => setForm('poll')}>Open a poll</Button> : null}
         {form === 'poll' ? (
           <PollOpener
             state={state}
