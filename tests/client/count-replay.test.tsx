@@ -46,6 +46,40 @@ describe('the replay', () => {
     expect(within(screen.getByRole('region', { name: 'Count log' })).getByText(/HOLD h1 called by PROP/)).toBeInTheDocument();
   });
 
+  it('shows the station board and each poll’s answers as they stood at the instant', async () => {
+    const withPoll = [
+      ...events,
+      ev(7, 'station:connected', { station: 'PROP' }, { seconds: 170, actor: PROP, station: 'PROP' }),
+      ev(8, 'poll:opened', { pollId: 'p1', stations: ['PROP', 'RANGE'], stepKey: null, question: 'Go for LOX load?', timeoutSeconds: 60 }, { seconds: 180, actor: TC }),
+      ev(9, 'poll:answered', { pollId: 'p1', station: 'PROP', answer: 'go', reason: '', responseMs: 4000 }, { seconds: 184, actor: PROP, station: 'PROP' }),
+      ev(10, 'poll:closed', { pollId: 'p1', result: 'nogo', nogo: [], missing: ['RANGE'], lost: [] }, { seconds: 240 }),
+    ];
+    fakeApi({
+      'GET /api/auth/me': json(200, people.operator),
+      'GET /api/setup': json(200, { needsFirstAdmin: false, teamName: 'Tern Valley Rocketry Collective' }),
+      'GET /api/counts/5/events': json(200, withPoll),
+    });
+    const first = renderApp(`/counts/5/replay?at=${CREATED + 190_000}`);
+    // 6 s after it opened: PROP has answered GO in 4.0 s; RANGE is still waiting, 50 s left.
+    const poll = await screen.findByRole('region', { name: 'Poll p1' });
+    expect(within(poll).getByText('50 s left to answer')).toBeInTheDocument();
+    const prop = within(poll).getByRole('row', { name: /PROP/ });
+    expect(prop).toHaveTextContent('GO');
+    expect(prop).toHaveTextContent('4.0 s');
+    expect(within(poll).getByRole('row', { name: /RANGE/ })).toHaveTextContent('waiting');
+    const board = screen.getByRole('region', { name: 'Stations' });
+    expect(within(board).getByRole('row', { name: /PROP/ })).toHaveTextContent('connected');
+    expect(within(board).getByRole('row', { name: /RANGE/ })).toHaveTextContent('not seen yet');
+
+    // At the end of the log the poll has closed: the last poll shows it failed, RANGE never answered.
+    first.unmount();
+    renderApp('/counts/5/replay');
+    const last = await screen.findByRole('region', { name: 'Last poll' });
+    expect(within(last).getByText('Failed')).toBeInTheDocument();
+    expect(within(last).getByRole('row', { name: /RANGE/ })).toHaveTextContent('no answer');
+    expect(within(last).getByRole('row', { name: /PROP/ })).toHaveTextContent('GO');
+  });
+
   it('without an instant shows the end of the log: counting again after the resume', async () => {
     open('/counts/5/replay');
     expect(await screen.findByRole('timer')).toHaveTextContent('T-00:28:22');

@@ -1,5 +1,4 @@
 import { useState } from 'react';
-import { Badge } from '../../../components/ui/Badge';
 import { Button } from '../../../components/ui/Button';
 import { CheckboxGroup, TextField } from '../../../components/ui/Field';
 import { Notice } from '../../../components/ui/Notice';
@@ -23,6 +22,7 @@ import {
   mayClearHold,
   PollTable,
   SafetyNote,
+  StationBoard,
   StatusLine,
   StepCard,
 } from './CountParts';
@@ -32,44 +32,6 @@ function nextSteps(state: CountState, n: number) {
   return countedSteps(state.plan)
     .filter((s) => state.steps[s.key]?.status === 'pending')
     .slice(0, n);
-}
-
-function StationBoard({ state }: { state: CountState }) {
-  const crew = state.plan?.crew ?? [];
-  return (
-    <section aria-label="Stations" className="rounded-md border-2 border-line bg-surface p-3">
-      <h2 className="mb-2 text-xl font-bold">Stations</h2>
-      {crew.length === 0 ? <p className="text-ink-muted">No crew on this count.</p> : null}
-      <table className="w-full text-left">
-        <thead>
-          <tr>
-            <th>Station</th>
-            <th>Who</th>
-            <th>Link</th>
-            <th>Last answer</th>
-          </tr>
-        </thead>
-        <tbody>
-          {crew.map((c) => {
-            const p = state.stations[c.station];
-            const presence = p?.presence ?? 'unknown';
-            return (
-              <tr key={c.station} className="border-t border-line-soft">
-                <td className="py-1 font-bold">{c.station}</td>
-                <td className="py-1">{c.names.join(', ') || '—'}</td>
-                <td className="py-1">
-                  <Badge tone={presence === 'connected' ? 'go' : presence === 'lost' ? 'danger' : 'neutral'} glyph={presence === 'connected' ? 'circle' : presence === 'lost' ? 'cross' : 'dash'}>
-                    {presence === 'connected' ? 'connected' : presence === 'lost' ? 'LOST' : 'not seen yet'}
-                  </Badge>
-                </td>
-                <td className="py-1">{p?.lastAnswer ? `${p.lastAnswer.answer === 'go' ? 'GO' : 'NO-GO'} (${p.lastAnswer.pollId}, ${clockTime(p.lastAnswer.at)})` : '—'}</td>
-              </tr>
-            );
-          })}
-        </tbody>
-      </table>
-    </section>
-  );
 }
 
 function PollOpener({ state, onOpen, onCancel }: { state: CountState; onOpen: (stations: string[], stepKey: string | null, question: string) => void; onCancel: () => void }) {

@@ -8,7 +8,7 @@ import { Notice } from '../../../components/ui/Notice';
 import { SelectField, TextAreaField } from '../../../components/ui/SelectField';
 import { HOLD_CATEGORIES, HOLD_CATEGORY_LABELS, type HoldCategory, type PlanStep } from '../../../domain/count/events';
 import { reachTimes } from '../../../domain/count/plan';
-import type { CountState, HoldRecord, OpenPoll, StepState } from '../../../domain/count/state';
+import type { ClosedPoll, CountState, HoldRecord, OpenPoll, StepState } from '../../../domain/count/state';
 import { STEP_KIND_LABELS } from '../../../domain/procedures/steps';
 import type { Connection, LogEntry, QueuedCommand } from '../hooks/useLiveCount';
 import { clockTime, eventWords, formatCountClock, STATUS_LOOK } from '../lib/format';
@@ -146,14 +146,64 @@ export function HoldBanner({
 }
 
 /** The open poll: each station's answer and how long it took. */
-export function PollTable({ poll, now }: { poll: OpenPoll; now: number }) {
+/** Each station of the crew: who mans it, whether its link is up, its last poll answer. */
+export function StationBoard({ state }: { state: CountState }) {
+  const crew = state.plan?.crew ?? [];
+  return (
+    <section aria-label="Stations" className="rounded-md border-2 border-line bg-surface p-3">
+      <h2 className="mb-2 text-xl font-bold">Stations</h2>
+      {crew.length === 0 ? <p className="text-ink-muted">No crew on this count.</p> : null}
+      <table className="w-full text-left">
+        <thead>
+          <tr>
+            <th>Station</th>
+            <th>Who</th>
+            <th>Link</th>
+            <th>Last answer</th>
+          </tr>
+        </thead>
+        <tbody>
+          {crew.map((c) => {
+            const p = state.stations[c.station];
+            const presence = p?.presence ?? 'unknown';
+            return (
+              <tr key={c.station} className="border-t border-line-soft">
+                <td className="py-1 font-bold">{c.station}</td>
+                <td className="py-1">{c.names.join(', ') || '—'}</td>
+                <td className="py-1">
+                  <Badge tone={presence === 'connected' ? 'go' : presence === 'lost' ? 'danger' : 'neutral'} glyph={presence === 'connected' ? 'circle' : presence === 'lost' ? 'cross' : 'dash'}>
+                    {presence === 'connected' ? 'connected' : presence === 'lost' ? 'LOST' : 'not seen yet'}
+                  </Badge>
+                </td>
+                <td className="py-1">{p?.lastAnswer ? `${p.lastAnswer.answer === 'go' ? 'GO' : 'NO-GO'} (${p.lastAnswer.pollId}, ${clockTime(p.lastAnswer.at)})` : '—'}</td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </section>
+  );
+}
+
+/** A poll's answers: an open one with its time left, or (in the replay) the last one closed, with its result. */
+export function PollTable({ poll, now }: { poll: OpenPoll | ClosedPoll; now: number }) {
   const left = Math.max(0, Math.ceil((poll.openedAt + poll.timeoutSeconds * 1000 - now) / 1000));
+  const closed = 'result' in poll ? poll : null;
   return (
     <section aria-label={`Poll ${poll.pollId}`} className="rounded-md border-2 border-line bg-surface p-3">
       <p className="text-lg font-bold">
         Poll {poll.pollId}: {poll.question}
       </p>
-      <p className="text-sm text-ink-muted">{left} s left to answer</p>
+      {closed ? (
+        <p className="flex flex-wrap items-center gap-2 text-sm">
+          <Badge tone={closed.result === 'go' ? 'go' : closed.result === 'nogo' ? 'danger' : 'neutral'} glyph={closed.result === 'go' ? 'check' : closed.result === 'nogo' ? 'cross' : 'dash'}>
+            {closed.result === 'go' ? 'Passed' : closed.result === 'nogo' ? 'Failed' : 'Cancelled'}
+          </Badge>
+          <span>closed at {clockTime(closed.closedAt)}</span>
+        </p>
+      ) : (
+        <p className="text-sm text-ink-muted">{left} s left to answer</p>
+      )}
       <table className="mt-2 w-full text-left">
         <thead>
           <tr>
@@ -174,7 +224,7 @@ export function PollTable({ poll, now }: { poll: OpenPoll; now: number }) {
                       {a.answer === 'go' ? 'GO' : `NO-GO: ${a.reason}`}
                     </Badge>
                   ) : (
-                    <Badge glyph="clock">waiting</Badge>
+                    <Badge glyph="clock">{closed ? (closed.lost.includes(s) ? 'lost' : 'no answer') : 'waiting'}</Badge>
                   )}
                 </td>
                 <td className="py-1 tabular-nums">{a ? `${(a.responseMs / 1000).toFixed(1)} s` : '—'}</td>

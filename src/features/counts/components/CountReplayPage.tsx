@@ -12,7 +12,7 @@ import { initialCountState, tAt } from '../../../domain/count/state';
 import { api, errorMessage } from '../../../lib/api';
 import { countKeys } from '../api/keys';
 import { logT, type LogEntry } from '../hooks/useLiveCount';
-import { BigClock, CountLog, HoldBanner, PollTable, StatusLine, StepCard } from './CountParts';
+import { BigClock, CountLog, HoldBanner, PollTable, StationBoard, StatusLine, StepCard } from './CountParts';
 
 const SPEEDS = [1, 10, 60] as const;
 const TICK_MS = 250;
@@ -175,7 +175,15 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
         <BigClock t={t} />
         <StatusLine state={state} />
         <HoldBanner state={state} />
-        {state.poll ? <PollTable poll={state.poll} now={at} /> : null}
+        {state.poll ? (
+          <PollTable poll={state.poll} now={at} />
+        ) : state.polls.length > 0 ? (
+          <section aria-label="Last poll" className="flex flex-col gap-2">
+            <h2 className="text-xl font-bold">Last poll before this instant</h2>
+            <PollTable poll={state.polls[state.polls.length - 1]!} now={at} />
+          </section>
+        ) : null}
+        <StationBoard state={state} />
         <section aria-label="Steps at this instant" className="flex flex-col gap-2">
           <h2 className="text-xl font-bold">Steps due at this instant</h2>
           {current.length === 0 ? <p className="text-ink-muted">No step was due.</p> : null}
