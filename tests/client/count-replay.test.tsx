@@ -80,6 +80,31 @@ describe('the replay', () => {
     expect(within(last).getByRole('row', { name: /PROP/ })).toHaveTextContent('GO');
   });
 
+  it('goes to the instant the clock read a count time the auditor types', async () => {
+    const user = userEvent.setup();
+    open(`/counts/5/replay?at=${CREATED + 10_000}`);
+    const field = await screen.findByLabelText('Go to a count time');
+    await user.type(field, 'soon');
+    await user.click(screen.getByRole('button', { name: 'Go' }));
+    expect(screen.getAllByText(/Write a count time like T-30:00/).length).toBeGreaterThan(0);
+
+    // Never reached in this log (it ends at T-28:22).
+    await user.clear(field);
+    await user.type(field, 'T-5:00');
+    await user.click(screen.getByRole('button', { name: 'Go' }));
+    expect(screen.getByText('The clock never read T-5:00 in this log.')).toBeInTheDocument();
+
+    // T-28:22 is where the hold stopped the clock, 100 s after the count was created: who called it and why.
+    await user.clear(field);
+    await user.type(field, 'T-28:22');
+    await user.click(screen.getByRole('button', { name: 'Go' }));
+    expect(screen.getByRole('status')).toHaveTextContent(/The clock read T-28:22 once, at/);
+    expect(screen.getByRole('timer')).toHaveTextContent('T-00:28:22');
+    const banner = screen.getByRole('region', { name: 'Hold' });
+    expect(within(banner).getByText('Propellant: LOX vent valve slow to close')).toBeInTheDocument();
+    expect(within(banner).getByText(/h1 called by PROP \(Rowan Fenn\)/)).toBeInTheDocument();
+  });
+
   it('without an instant shows the end of the log: counting again after the resume', async () => {
     open('/counts/5/replay');
     expect(await screen.findByRole('timer')).toHaveTextContent('T-00:28:22');

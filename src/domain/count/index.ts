@@ -9,3 +9,4 @@ export * from './projection';
 export * from './clockSync';
 export * from './report';
 export * from './simulate';
+export * from './timeline';

@@ -1,14 +1,17 @@
 import { useQuery } from '@tanstack/react-query';
 import { format } from 'date-fns';
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useState, type FormEvent } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { Button } from '../../../components/ui/Button';
+import { TextField } from '../../../components/ui/Field';
 import { Notice } from '../../../components/ui/Notice';
 import { Loading, Page } from '../../../components/ui/Page';
 import type { CountEventDto } from '../../../contract/count';
 import { HOLD_CATEGORY_LABELS, type CountEvent } from '../../../domain/count/events';
 import { reduce, stateAt } from '../../../domain/count/reduce';
 import { initialCountState, tAt } from '../../../domain/count/state';
+import { instantsAtT } from '../../../domain/count/timeline';
+import { formatTMinus, parseTMinus, T_MINUS_HINT } from '../../../domain/procedures/tminus';
 import { api, errorMessage } from '../../../lib/api';
 import { countKeys } from '../api/keys';
 import { logT, type LogEntry } from '../hooks/useLiveCount';
@@ -63,6 +66,8 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
   const [at, setAt] = useState(() => (Number.isFinite(asked) && asked >= first && asked <= last ? asked : last));
   const [playing, setPlaying] = useState(false);
   const [speed, setSpeed] = useState<(typeof SPEEDS)[number]>(10);
+  const [tText, setTText] = useState('');
+  const [tFound, setTFound] = useState<{ t: number; instants: number[]; index: number } | { error: string } | null>(null);
 
   // Every event with the count time it happened at, folded once.
   const entries = useMemo(() => {
@@ -105,6 +110,23 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
       setPlaying(false);
       setAt(target.at);
     }
+  };
+  const goToT = (e: FormEvent) => {
+    e.preventDefault();
+    const wanted = parseTMinus(tText);
+    if (wanted === undefined) return setTFound({ error: T_MINUS_HINT });
+    const instants = instantsAtT(events, wanted);
+    if (instants.length === 0) return setTFound({ error: `The clock never read ${formatTMinus(wanted)} in this log.` });
+    setPlaying(false);
+    setAt(instants[0]!);
+    setTFound({ t: wanted, instants, index: 0 });
+  };
+  const nextTime = () => {
+    if (!tFound || 'error' in tFound) return;
+    const index = (tFound.index + 1) % tFound.instants.length;
+    setPlaying(false);
+    setAt(tFound.instants[index]!);
+    setTFound({ ...tFound, index });
   };
   const plan = state.plan;
   const current = plan
@@ -171,6 +193,24 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
             <Button onClick={() => jump('redline', 1)}>Next redline</Button>
             <Button onClick={() => jump('recycle', 1)}>Next recycle</Button>
           </div>
+          <form onSubmit={goToT} className="flex flex-wrap items-end gap-2">
+            <TextField
+              label="Go to a count time"
+              hint="The instant the clock read it, e.g. T-4:12"
+              value={tText}
+              onChange={(e) => setTText(e.target.value)}
+              error={tFound && 'error' in tFound ? tFound.error : undefined}
+            />
+            <Button type="submit">Go</Button>
+          </form>
+          {tFound && !('error' in tFound) ? (
+            <p role="status" className="flex flex-wrap items-center gap-2">
+              {tFound.instants.length === 1
+                ? `The clock read ${formatTMinus(tFound.t)} once, at ${format(tFound.instants[0]!, 'HH:mm:ss')}.`
+                : `The clock read ${formatTMinus(tFound.t)} ${tFound.instants.length} times (holds or recycles); showing time ${tFound.index + 1}, at ${format(tFound.instants[tFound.index]!, 'HH:mm:ss')}.`}
+              {tFound.instants.length > 1 ? <Button onClick={nextTime}>Next time it read {formatTMinus(tFound.t)}</Button> : null}
+            </p>
+          ) : null}
         </section>
         <BigClock t={t} />
         <StatusLine state={state} />
