@@ -37,6 +37,9 @@ const pages: { role: RoleName | null; path: string; name: string; long?: boolean
   { role: 'admin', path: '/procedures/stations', name: 'stations' },
   { role: 'conductor', path: '/procedures/1/crew', name: 'crew-plans' },
   { role: 'operator', path: '/counts', name: 'counts' },
+  // The demo's second count, at its recorder hold (server/db/seed-counts.ts), and its report.
+  { role: 'auditor', path: '/counts/2/replay?at=1748681735000', name: 'count-replay' },
+  { role: 'auditor', path: '/counts/2/report', name: 'count-report' },
   { role: 'auditor', path: '/records', name: 'records' },
   { role: 'admin', path: '/admin/people', name: 'people' },
   { role: 'admin', path: '/admin/mail', name: 'mail' },

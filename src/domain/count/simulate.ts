@@ -22,8 +22,8 @@ export interface SimPerson {
 export interface CrewOptions {
   /** Seconds after a step became current that its station does it; default 15 to 45 s, by the step's place. */
   stepDelaySeconds?: (step: PlanStep) => number;
-  /** Seconds after a poll opened that a station answers; default 6 to 30 s, by the station's place in the poll. */
-  answerDelaySeconds?: (station: string, index: number) => number;
+  /** Seconds after a poll opened that a station answers; default 4 to 28 s, by the station's place and the poll's. */
+  answerDelaySeconds?: (station: string, index: number, pollNumber: number) => number;
   /** The value read for a reading step; default the middle of its limits. */
   readingFor?: (step: PlanStep) => number;
   /** Steps nobody does (yet): their keys. */
@@ -39,7 +39,7 @@ export function inLimitsValue(step: Pick<PlanStep, 'min' | 'max'>): number {
 }
 
 const defaultStepDelay = (step: PlanStep) => 15 + ((step.index * 7) % 31);
-const defaultAnswerDelay = (_station: string, index: number) => 6 + ((index * 5) % 25);
+const defaultAnswerDelay = (_station: string, index: number, pollNumber: number) => 4 + ((index * 5 + pollNumber * 7) % 25);
 
 export class CountSimulation {
   events: CountEvent[] = [];
@@ -139,7 +139,7 @@ export class CountSimulation {
       if (poll) {
         poll.stations.forEach((station, i) => {
           if (poll.answers[station]) return;
-          consider(poll.openedAt + answerDelay(station, i) * 1000, personFor(station), { type: 'poll:answer', pollId: poll.pollId, station, answer: 'go' });
+          consider(poll.openedAt + answerDelay(station, i, this.state.polls.length + 1) * 1000, personFor(station), { type: 'poll:answer', pollId: poll.pollId, station, answer: 'go' });
         });
       }
 

@@ -15,6 +15,7 @@ import { formatTMinus, parseTMinus, T_MINUS_HINT } from '../../../domain/procedu
 import { api, errorMessage } from '../../../lib/api';
 import { countKeys } from '../api/keys';
 import { logT, type LogEntry } from '../hooks/useLiveCount';
+import { RecordCheck } from './RecordCheck';
 import { BigClock, CountLog, HoldBanner, PollTable, StationBoard, StatusLine, StepCard } from './CountParts';
 
 const SPEEDS = [1, 10, 60] as const;
@@ -232,6 +233,7 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
           ))}
         </section>
         <CountLog log={entries.filter((e) => e.event.at <= at)} plan={plan} />
+        <RecordCheck countId={countId} />
       </div>
     </Page>
   );
