@@ -40,6 +40,7 @@ import { uploadRoutes } from './routes/uploads.routes';
 import { stationRoutes } from './routes/stations.routes';
 import { userRoutes } from './routes/users.routes';
 import { createUploadStore } from './uploads';
+import { Notifier } from './mail/notify';
 import './types';
 
 const SESSION_HOURS = 12;
@@ -53,6 +54,8 @@ export interface HoldfireApp {
   /** The live counts: recover() at start-up holds any count that was counting when the server stopped. */
   counts: CountService;
   eventLog: EventLog;
+  /** E-mail notices as each person chose: at once, in the daily digest, or off. */
+  notifier: Notifier;
   close(): Promise<void>;
 }
 
@@ -112,8 +115,9 @@ export function createApp(deps: AppDeps): HoldfireApp {
   const eventLog = new EventLog({ sequelize: deps.sequelize, busyTimeoutMs: config.dbBusyTimeoutMs });
   // The socket server is made below; events are only broadcast once it exists (a count cannot be reached before).
   let io: HoldfireServer | undefined;
+  const notifier = new Notifier({ mailer: deps.mailer, log, digestHourUtc: config.digestHourUtc, appUrl: config.appUrl });
   const countEvents = new CountEvents({
-    mailer: deps.mailer,
+    notifier,
     appUrl: config.appUrl,
     log,
     readLog: async (countId) => (await eventLog.read(countId)) as unknown as (CountEvent & { hash: string })[],
@@ -138,17 +142,17 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...userRoutes({ sessions }),
     ...invitationRoutes({ ...deps, log }),
     ...passwordResetRoutes({ ...deps, log, sessions }),
-    ...profileRoutes({ sessions }),
+    ...profileRoutes({ sessions, notifier }),
     ...mailRoutes,
-    ...hazardRoutes({ uploads }),
+    ...hazardRoutes({ uploads, notifier }),
     ...riskMatrixRoutes(),
     ...propellantRoutes(),
     ...calcRoutes(),
     ...uploadRoutes({ uploads }),
-    ...procedureRoutes({ uploads }),
+    ...procedureRoutes({ uploads, notifier }),
     ...stationRoutes(),
     ...crewPlanRoutes(),
-    ...countRoutes({ counts }),
+    ...countRoutes({ counts, notifier }),
   ];
 
   const api = express.Router();
@@ -200,11 +204,13 @@ export function createApp(deps: AppDeps): HoldfireApp {
     routes,
     counts,
     eventLog,
+    notifier,
     async close() {
       store.stopExpiringSessions();
       counts.close();
       await counts.settle();
       await countEvents.settle();
+      await notifier.settle();
       // After settle nothing more is appended; the log's own database connection goes with the app.
       await eventLog.close();
       await new Promise<void>((resolve) => server.close(() => resolve()));

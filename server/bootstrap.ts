@@ -6,6 +6,7 @@ import { migrate } from './db/migrator';
 import { seedDemo } from './db/seed';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createMailer } from './mail/mailer';
+import { startDigestTimer } from './mail/notify';
 import { initModels } from './models';
 
 export interface Holdfire extends HoldfireApp {
@@ -30,11 +31,13 @@ export async function startHoldfire(
   const holdfire = createApp({ config, sequelize, mailer, localMail: !config.smtpUrl, signInLimits: options.signInLimits, log: options.log });
   // Before anyone connects: a count that was counting when the server stopped is put on hold, never resumed.
   await holdfire.counts.recover();
+  const stopDigests = startDigestTimer(holdfire.notifier, options.log ?? ((message, error) => console.error(message, error)));
   return {
     ...holdfire,
     config,
     smtp,
     async shutdown() {
+      stopDigests();
       await holdfire.close();
       mailer.close();
       await smtp?.close();

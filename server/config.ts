@@ -18,6 +18,7 @@ const envSchema = z.object({
   HOLDFIRE_SEED: z.enum(['demo', 'none']).default('demo'),
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   HOLDFIRE_DB_BUSY_TIMEOUT_MS: z.coerce.number().int().min(10).max(60_000).default(5000),
+  HOLDFIRE_DIGEST_HOUR_UTC: z.coerce.number().int().min(0).max(23).default(6),
 });
 
 export interface Config {
@@ -36,6 +37,8 @@ export interface Config {
   nodeEnv: 'development' | 'production' | 'test';
   /** How long a database write waits for another writer's lock before it gives up (SQLITE_BUSY). */
   dbBusyTimeoutMs: number;
+  /** The hour (UTC) the daily notice digest goes out. */
+  digestHourUtc: number;
 }
 
 export class ConfigError extends Error {}
@@ -71,6 +74,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     seed: e.HOLDFIRE_SEED,
     nodeEnv: e.NODE_ENV,
     dbBusyTimeoutMs: e.HOLDFIRE_DB_BUSY_TIMEOUT_MS,
+    digestHourUtc: e.HOLDFIRE_DIGEST_HOUR_UTC,
   };
 }
 

@@ -8,11 +8,11 @@ import { HOLD_CATEGORY_LABELS } from '../../src/domain/count/events';
 import type { CountState } from '../../src/domain/count/state';
 import { tAt } from '../../src/domain/count/state';
 import { formatTMinus } from '../../src/domain/procedures/tminus';
-import type { Mailer } from '../mail/mailer';
+import type { Notifier } from '../mail/notify';
 import { countReportMail, scrubNoticeMail } from '../mail/templates';
 import { countReport } from '../../src/domain/count/report';
 import type { CountEvent } from '../../src/domain/count/events';
-import { Count, User } from '../models';
+import { Count } from '../models';
 
 export class CountEvents {
   private pending = new Set<Promise<unknown>>();
@@ -23,7 +23,7 @@ export class CountEvents {
 
   constructor(
     private readonly deps: {
-      mailer: Mailer;
+      notifier: Notifier;
       appUrl: string;
       log: (message: string, error?: unknown) => void;
       /** The count's whole log with hashes, for the report (committed before this runs). */
@@ -55,37 +55,30 @@ export class CountEvents {
     void guarded.finally(() => this.pending.delete(guarded));
   }
 
+  private crewIds(state: CountState): number[] {
+    return [...new Set((state.plan?.crew ?? []).flatMap((c) => c.userIds))];
+  }
+
   private async scrubNotice(count: { id: number; state: CountState }, e: Extract<CountEventDto, { type: 'count:scrubbed' }>) {
     const plan = count.state.plan;
     if (!plan) return;
-    const ids = [...new Set(plan.crew.flatMap((c) => c.userIds))];
-    if (ids.length === 0) return;
-    const users = await User.findAll({ where: { id: ids, active: true }, attributes: ['email'] });
-    if (users.length === 0) return;
-    await this.deps.mailer.send(
-      scrubNoticeMail({
-        to: users.map((u) => u.email),
-        countName: plan.name,
-        category: HOLD_CATEGORY_LABELS[e.payload.category],
-        reason: e.payload.reason,
-        scrubbedBy: e.actor?.name ?? 'the test conductor',
-        at: new Date(e.at),
-        tMinus: formatTMinus(Math.round(tAt(count.state, e.at))),
-        link: `${this.deps.appUrl}/counts/${count.id}`,
-      }),
-    );
-  }
-
-  private async crewEmails(state: CountState): Promise<string[]> {
-    const ids = [...new Set((state.plan?.crew ?? []).flatMap((c) => c.userIds))];
-    if (ids.length === 0) return [];
-    return (await User.findAll({ where: { id: ids, active: true }, attributes: ['email'] })).map((u) => u.email);
+    const mail = scrubNoticeMail({
+      to: [],
+      countName: plan.name,
+      category: HOLD_CATEGORY_LABELS[e.payload.category],
+      reason: e.payload.reason,
+      scrubbedBy: e.actor?.name ?? 'the test conductor',
+      at: new Date(e.at),
+      tMinus: formatTMinus(Math.round(tAt(count.state, e.at))),
+      link: `${this.deps.appUrl}/counts/${count.id}`,
+    });
+    await this.deps.notifier.deliver('scrub-notice', this.crewIds(count.state), () => mail);
   }
 
   /** The count report to the crew once the count has ended (safing closed, after a firing or a scrub). */
   private async reportMail(count: { id: number; state: CountState }) {
-    const to = await this.crewEmails(count.state);
-    if (to.length === 0 || !this.deps.readLog) return;
+    const ids = this.crewIds(count.state);
+    if (ids.length === 0 || !this.deps.readLog) return;
     const r = countReport(await this.deps.readLog(count.id));
     const t = (s: number) => formatTMinus(Math.round(s));
     const secs = (s: number) => `${Math.round(s)} s`;
@@ -97,9 +90,8 @@ export class CountEvents {
       `Polls: ${r.polls.count} (${r.polls.passed} passed, ${r.polls.failed} failed)`,
       `Readings out of limits: ${r.redlines.length}${r.redlines.map((x) => `; ${t(x.t)} ${x.station}: ${x.message}`).join('')}`,
     ].filter((l): l is string => l !== null);
-    await this.deps.mailer.send(
-      countReportMail({ to, countName: count.state.plan?.name ?? `Count ${count.id}`, lines, lastHash: r.lastHash, link: `${this.deps.appUrl}/counts/${count.id}/report` }),
-    );
+    const mail = countReportMail({ to: [], countName: count.state.plan?.name ?? `Count ${count.id}`, lines, lastHash: r.lastHash, link: `${this.deps.appUrl}/counts/${count.id}/report` });
+    await this.deps.notifier.deliver('count-report', ids, () => mail);
   }
 
   /** Waits for follow-ups in flight (shutdown, tests). */

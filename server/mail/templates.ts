@@ -1,3 +1,4 @@
+import type { CountPlan } from '../../src/domain/count/events';
 import { ROLE_LABELS, type Role } from '../../src/domain/people/roles';
 import type { OutgoingMail } from './mailer';
 
@@ -76,3 +77,28 @@ export function countReportMail(args: {
   };
 }
 
+
+/** To one crew member when a count is created: their station(s), when to report, the window, the link. */
+export function countScheduledNotice(args: {
+  plan: Pick<CountPlan, 'name' | 'crew' | 'revisionNumber'>;
+  userId: number;
+  conductor: string;
+  reportAt: number | null;
+  windowEnd: number | null;
+  link: string;
+}): { subject: string; text: string } {
+  const stations = args.plan.crew.filter((c) => c.userIds.includes(args.userId)).map((c) => c.station);
+  const when = (ms: number) => `${new Date(ms).toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+  return {
+    subject: `On the crew: ${args.plan.name}${args.reportAt !== null ? `, report ${when(args.reportAt)}` : ''}`,
+    text: [
+      `${args.conductor} has put you on the crew of "${args.plan.name}" (procedure revision ${args.plan.revisionNumber}).`,
+      `Your station${stations.length === 1 ? '' : 's'}: ${stations.join(', ') || 'none named'}.`,
+      args.reportAt !== null ? `Report at: ${when(args.reportAt)}.` : 'The test conductor will tell you when to report.',
+      args.windowEnd !== null ? `The firing window ends at ${when(args.windowEnd)}.` : null,
+      `Read the procedure for your station before the day, and bring the PPE it lists. The count: ${args.link}`,
+    ]
+      .filter((l) => l !== null)
+      .join('\n'),
+  };
+}

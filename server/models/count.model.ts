@@ -23,6 +23,8 @@ export class Count extends Model<InferAttributes<Count>, InferCreationAttributes
   declare status: CreationOptional<string>;
   /** End of the test window, epoch milliseconds. */
   declare windowEnd: number | null;
+  /** When the crew is asked to report, epoch milliseconds. */
+  declare reportAt: CreationOptional<number | null>;
   declare createdById: ForeignKey<User['id']> | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -34,6 +36,7 @@ export class Count extends Model<InferAttributes<Count>, InferCreationAttributes
         name: { type: DataTypes.STRING(160), allowNull: false },
         status: { type: DataTypes.STRING(20), allowNull: false, defaultValue: 'ready' },
         windowEnd: { type: DataTypes.INTEGER, allowNull: true },
+        reportAt: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -8,6 +8,7 @@ import { HazardHistory } from './hazard-history.model';
 import { Hazard } from './hazard.model';
 import { Invitation } from './invitation.model';
 import { MailMessage } from './mail-message.model';
+import { NotificationDigestItem } from './notification-digest-item.model';
 import { MitigationEvidence } from './mitigation-evidence.model';
 import { Mitigation } from './mitigation.model';
 import { PasswordReset } from './password-reset.model';
@@ -49,6 +50,7 @@ const MODELS = {
   CrewAssignment,
   Count,
   CountEvent,
+  NotificationDigestItem,
 };
 
 /** Every model and association, in one place. */
@@ -109,6 +111,7 @@ export function initModels(sequelize: Sequelize) {
   Count.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
   Count.hasMany(CountEvent, { as: 'events', foreignKey: 'countId' });
   CountEvent.belongsTo(Count, { foreignKey: 'countId' });
+  User.hasMany(NotificationDigestItem, { foreignKey: 'userId', onDelete: 'CASCADE' });
 
   return MODELS;
 }
@@ -124,6 +127,7 @@ export {
   Invitation,
   MailMessage,
   Mitigation,
+  NotificationDigestItem,
   MitigationEvidence,
   PasswordReset,
   Procedure,

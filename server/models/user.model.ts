@@ -8,6 +8,7 @@ import {
   type Sequelize,
 } from 'sequelize';
 import type { Me, User as UserDto } from '../../src/contract/people';
+import type { NotificationPrefs } from '../../src/contract/notifications';
 import type { Role } from '../../src/domain/people/roles';
 import { jsonColumn } from './json-column';
 import type { Team } from './team.model';
@@ -19,6 +20,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare name: string;
   declare passwordHash: string;
   declare roles: Role[];
+  /** How this person takes each kind of e-mail notice; null: every notice at once. */
+  declare notificationPrefs: CreationOptional<Partial<NotificationPrefs> | null>;
   declare active: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -31,6 +34,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         name: { type: DataTypes.STRING(120), allowNull: false },
         passwordHash: { type: DataTypes.STRING(100), allowNull: false },
         roles: jsonColumn<Role[]>('roles', []),
+        notificationPrefs: { ...jsonColumn<Partial<NotificationPrefs> | null>('notificationPrefs', null), allowNull: true },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -18,6 +18,8 @@ import { toCsv, toJsonl } from '../counts/export';
 import type { ChainedEvent } from '../../src/domain/count/chain';
 import { badRequest, conflict, HttpError, notFound } from '../http/errors';
 import { route } from '../http/route';
+import type { Notifier } from '../mail/notify';
+import { countScheduledNotice } from '../mail/templates';
 import { Count, Procedure, ProcedureRevision, User } from '../models';
 import { countableRevision } from '../procedures/countable';
 import { buildCountPlan } from '../counts/plan';
@@ -63,10 +65,11 @@ function summary(row: Count, state: CountState, procedureName: string, createdBy
     t0At: iso(state.t0At),
     closedAt: iso(state.closedAt),
     windowEnd: iso(plan?.windowEnd ?? null),
+    reportAt: iso(row.reportAt ?? null),
   };
 }
 
-export function countRoutes({ counts }: { counts: CountService }) {
+export function countRoutes({ counts, notifier }: { counts: CountService; notifier: Notifier }) {
   async function detail(teamId: number, row: Count): Promise<CountDetailDto> {
     const live = await counts.get(teamId, row.id);
     const [procedure, creator] = await Promise.all([
@@ -117,9 +120,15 @@ export function countRoutes({ counts }: { counts: CountService }) {
 
         const { plan, windowEnd } = await buildCountPlan(teamId, p, rev, body);
 
-        const row = await Count.create({ teamId, procedureId: p.id, revisionId: rev.id, name: body.name, windowEnd, createdById: user!.id });
+        const reportAt = body.reportAt ? Date.parse(body.reportAt) : null;
+        const row = await Count.create({ teamId, procedureId: p.id, revisionId: rev.id, name: body.name, windowEnd, reportAt, createdById: user!.id });
         const created: EventDraft = { type: 'count:created', payload: plan, actor: { userId: user!.id, name: user!.name }, station: null };
         await counts.start(row.id, created);
+        notifier.notify(
+          'count-scheduled',
+          plan.crew.flatMap((c) => c.userIds),
+          (u) => countScheduledNotice({ plan, userId: u.id, conductor: user!.name, reportAt, windowEnd, link: `${notifier.appUrl}/counts/${row.id}` }),
+        );
         return detail(teamId, row);
       },
     }),

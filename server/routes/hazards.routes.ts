@@ -18,6 +18,7 @@ import { acceptanceProgress } from '../../src/domain/hazards/acceptance';
 import { canTransition, nextStatuses, type HazardStatus, type MitigationKind } from '../../src/domain/hazards/mitigation';
 import { HttpError, badRequest, conflict, notFound } from '../http/errors';
 import { route } from '../http/route';
+import { roleHolders, type Notifier } from '../mail/notify';
 import { runCalc } from '../hazards/calc';
 import {
   checkRiskFields,
@@ -100,7 +101,7 @@ function historyDto(e: HazardHistory): HistoryEntryDto {
   return { id: e.id, userId: e.userId, userName: e.userName, field: e.field, before: e.before, after: e.after, at: e.createdAt.toISOString() };
 }
 
-export function hazardRoutes({ uploads }: { uploads: UploadStore }) {
+export function hazardRoutes({ uploads, notifier }: { uploads: UploadStore; notifier: Notifier }) {
   return [
     route({
       method: 'get',
@@ -216,7 +217,7 @@ export function hazardRoutes({ uploads }: { uploads: UploadStore }) {
       handler: async ({ params, body, user }) => {
         const teamId = user!.teamId;
         const actor = actorOf(user);
-        return tx(async (t) => {
+        const dto = await tx(async (t) => {
           const h = await findHazard(teamId, params.id, t);
           const from = h.status;
           if (!canTransition(from, body.to)) {
@@ -250,6 +251,23 @@ export function hazardRoutes({ uploads }: { uploads: UploadStore }) {
           await setStatus(h, body.to, actor, t, body.note);
           return hazardDtoFor(teamId, h.id, t);
         });
+        if (body.to === 'awaiting-acceptance') {
+          // Those who can accept it hear of it (after the commit: a notice never holds up the change).
+          const required = dto.acceptanceProgress?.requiredRoles ?? [];
+          const ids = await roleHolders(teamId, required, actor.id);
+          notifier.notify('acceptance-needed', ids, () => ({
+            subject: `Acceptance needed: ${dto.code} ${dto.title}`,
+            text: [
+              `${actor.name} asks for the residual risk of ${dto.code} "${dto.title}" to be accepted.`,
+              `Residual risk: ${dto.residualRisk ?? 'see the hazard'}. Accepted by: ${required.join(' and ') || 'see the hazard'}.`,
+              body.note ? `Note: ${body.note}` : null,
+              `Read it and sign: ${notifier.appUrl}/hazards/${dto.id}`,
+            ]
+              .filter((l) => l !== null)
+              .join('\n'),
+          }));
+        }
+        return dto;
       },
     }),
     route({

@@ -18,10 +18,11 @@ import {
   type RevisionSaveDto,
 } from '../../src/contract/procedures';
 import { diffRevisions } from '../../src/domain/procedures/diff';
-import { checkSignoff } from '../../src/domain/procedures/release';
+import { checkSignoff, SIGNOFF_ROLES } from '../../src/domain/procedures/release';
 import { stepCount, validatePhases } from '../../src/domain/procedures/steps';
 import { HttpError, badRequest, conflict, notFound, zodDetails } from '../http/errors';
 import { route } from '../http/route';
+import { roleHolders, type Notifier } from '../mail/notify';
 import { Procedure, ProcedureAttachment, ProcedureRevision, ProcedureSignoff, type Upload } from '../models';
 import {
   cautionContext,
@@ -65,7 +66,7 @@ const slug = (s: string) =>
     .replace(/^-+|-+$/g, '')
     .slice(0, 60) || 'procedure';
 
-export function procedureRoutes({ uploads }: { uploads: UploadStore }) {
+export function procedureRoutes({ uploads, notifier }: { uploads: UploadStore; notifier: Notifier }) {
   return [
     route({
       method: 'get',
@@ -316,7 +317,7 @@ export function procedureRoutes({ uploads }: { uploads: UploadStore }) {
         if (!user!.roles.includes(body.as)) {
           throw new HttpError(403, 'forbidden', `You do not hold the ${ROLE_NAMES[body.as]} role, so you cannot sign as ${ROLE_NAMES[body.as]}.`);
         }
-        return tx(async (t) => {
+        const signed = await tx(async (t) => {
           const p = await findProcedure(teamId, params.id, t);
           const rev = findRevision(p, params.rev);
           const existing = rev.signoffs ?? [];
@@ -339,8 +340,22 @@ export function procedureRoutes({ uploads }: { uploads: UploadStore }) {
             await rev.save({ transaction: t });
           }
           const fresh = await findProcedure(teamId, p.id, t);
-          return revisionDto(fresh, findRevision(fresh, rev.number), await cautionContext(teamId, t));
+          return { dto: revisionDto(fresh, findRevision(fresh, rev.number), await cautionContext(teamId, t)), procedureName: p.name, releases: check.releases };
         });
+        if (!signed.releases) {
+          // One signature given: whoever holds the other role hears that theirs is needed.
+          const missing = SIGNOFF_ROLES.filter((r) => r !== body.as);
+          const ids = await roleHolders(teamId, missing, user!.id);
+          notifier.notify('signoff-needed', ids, () => ({
+            subject: `Sign-off needed: ${signed.procedureName}, revision ${params.rev}`,
+            text: [
+              `${user!.name} signed revision ${params.rev} of "${signed.procedureName}" as ${ROLE_NAMES[body.as]}.`,
+              `It is released when someone else signs as ${missing.map((r) => ROLE_NAMES[r]).join(' and ')}.`,
+              `Read it and sign: ${notifier.appUrl}/procedures/${params.id}/revisions/${params.rev}`,
+            ].join('\n'),
+          }));
+        }
+        return signed.dto;
       },
     }),
     route({

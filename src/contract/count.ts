@@ -80,6 +80,8 @@ export const countCreateInputSchema = z
       .max(30, 'List at most 30 stations')
       .optional(),
     windowEnd: z.iso.datetime({ offset: true, message: 'Use a date and time like 2025-05-17T14:30:00Z' }).optional(),
+    /** When the crew is asked to report; sent to each of them with their station. */
+    reportAt: z.iso.datetime({ offset: true, message: 'Use a date and time like 2025-05-17T06:30:00Z' }).optional(),
     terminalCountSeconds: countTime.max(0, 'Terminal count starts before T-0').optional(),
     recycleToSeconds: countTime.max(0, 'Recycle to a time before T-0').optional(),
     /** Phases run after a scrub or after firing; default: those named for safing. */
@@ -113,6 +115,8 @@ export interface CountSummaryDto {
   t0At: string | null;
   closedAt: string | null;
   windowEnd: string | null;
+  /** When the crew is asked to report. */
+  reportAt: string | null;
 }
 
 /** The reducer's state as it is: plain JSON. */

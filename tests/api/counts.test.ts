@@ -212,7 +212,8 @@ describe('scrub', () => {
     expect(res.body.events.map((e: { type: string }) => e.type)).toContain('count:scrubbed');
     const state = (await conductor.get(`/api/counts/${id}/state`).expect(200)).body;
     expect(state.status).toBe('safing');
-    const mail = await waitForMail(admin, 'propellants@ternvalley.test');
+    // The crew was told of the count when it was made; this is the scrub notice.
+    const mail = await waitForMail(admin, 'propellants@ternvalley.test', 5000, /^Scrubbed:/);
     expect(mail.subject).toBe('Scrubbed: Run for scrubbing');
     expect(mail.text).toContain('Thunderstorm cell 15 km west');
     expect(mail.text).toContain('Category: Weather');
@@ -233,7 +234,7 @@ describe('the end of a count', () => {
     const subject = `Count report: ${(await auditor.get(`/api/counts/${id}/state`).expect(200)).body.plan.name}`;
     let mail: { subject: string; text: string } | undefined;
     await until(async () => {
-      // One message to the whole crew: PROP's address is among its recipients.
+      // Each of the crew gets the report; this is PROP's copy.
       mail = (await outbox(admin)).find((m) => m.subject === subject && m.to.includes('propellants@ternvalley.test'));
       return mail !== undefined;
     });

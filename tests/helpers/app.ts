@@ -76,11 +76,12 @@ export async function startTestApp(
 }
 
 /** Waits until the local SMTP server has stored a message for `to` (delivery is asynchronous). */
-export async function waitForMail(admin: TestClient, to: string, timeoutMs = 5000) {
+export async function waitForMail(admin: TestClient, to: string, timeoutMs = 5000, subject?: string | RegExp) {
   const until = Date.now() + timeoutMs;
+  const matches = (s: string) => subject === undefined || (typeof subject === 'string' ? s === subject : subject.test(s));
   for (;;) {
     const res = await admin.get('/api/mail/outbox').expect(200);
-    const found = (res.body as { to: string; subject: string; text: string }[]).find((m) => m.to.includes(to));
+    const found = (res.body as { to: string; subject: string; text: string }[]).find((m) => m.to.includes(to) && matches(m.subject));
     if (found) return found;
     if (Date.now() > until) throw new Error(`no mail for ${to} within ${timeoutMs} ms`);
     await new Promise((r) => setTimeout(r, 50));

@@ -25,7 +25,8 @@ function NewCountForm() {
   const procedure = useProcedureRevisions(procedureId);
   const [name, setName] = useState('');
   const [windowEnd, setWindowEnd] = useState('');
-  const [errors, setErrors] = useState<{ procedure?: string; name?: string; windowEnd?: string }>({});
+  const [reportAt, setReportAt] = useState('');
+  const [errors, setErrors] = useState<{ procedure?: string; name?: string; windowEnd?: string; reportAt?: string }>({});
   const create = useCreateCount();
 
   const latest = procedure.data?.latestReleased?.number ?? null;
@@ -41,11 +42,12 @@ function NewCountForm() {
           procedure: procedureId === null ? 'Choose a procedure' : !chosen ? 'This procedure has no released revision to count from' : undefined,
           name: name.trim() ? undefined : 'Enter a name',
           windowEnd: windowEnd && Number.isNaN(Date.parse(windowEnd)) ? 'Use a date and time' : undefined,
+          reportAt: reportAt && Number.isNaN(Date.parse(reportAt)) ? 'Use a date and time' : undefined,
         };
         setErrors(problems);
-        if (problems.procedure || problems.name || problems.windowEnd || procedureId === null || !chosen) return;
+        if (problems.procedure || problems.name || problems.windowEnd || problems.reportAt || procedureId === null || !chosen) return;
         create.mutate(
-          { procedureId, revisionId: chosen.id, name: name.trim(), ...(windowEnd ? { windowEnd: new Date(windowEnd).toISOString() } : {}) },
+          { procedureId, revisionId: chosen.id, name: name.trim(), ...(windowEnd ? { windowEnd: new Date(windowEnd).toISOString() } : {}), ...(reportAt ? { reportAt: new Date(reportAt).toISOString() } : {}) },
           { onSuccess: (count) => void navigate(`/counts/${count.id}`) },
         );
       }}
@@ -73,6 +75,14 @@ function NewCountForm() {
         </div>
       ) : null}
       <TextField label="Name" hint="For example: Kestrel-2 hot fire 3, Marsh End" value={name} maxLength={160} onChange={(e) => setName(e.target.value)} error={errors.name} />
+      <TextField
+        label="Crew reports at (optional)"
+        hint="Each crew member is e-mailed their station and this time."
+        type="datetime-local"
+        value={reportAt}
+        onChange={(e) => setReportAt(e.target.value)}
+        error={errors.reportAt}
+      />
       <TextField label="Firing window ends (optional)" type="datetime-local" value={windowEnd} onChange={(e) => setWindowEnd(e.target.value)} error={errors.windowEnd} />
       <FormError title="Count not created" message={create.error ? (isApiError(create.error) && create.error.details.length ? `${create.error.message} ${create.error.details.map((d) => d.message).join(' ')}` : errorMessage(create.error)) : null} />
       <FormActions>

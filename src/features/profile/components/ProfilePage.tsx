@@ -5,6 +5,7 @@ import { ROLE_DUTIES } from '../../../lib/roles';
 import { useSignedInMe } from '../../../lib/session';
 import { ChangeNameForm } from './ChangeNameForm';
 import { ChangePasswordForm } from './ChangePasswordForm';
+import { NotificationChoices } from './NotificationChoices';
 import { ThemeChoice } from './ThemeChoice';
 
 export function ProfilePage() {
@@ -40,6 +41,9 @@ export function ProfilePage() {
         </Section>
         <Section title="Change password">
           <ChangePasswordForm />
+        </Section>
+        <Section title="E-mail notices">
+          <NotificationChoices />
         </Section>
       </div>
     </Page>
