@@ -76,3 +76,26 @@ export function countReportMail(args: {
   };
 }
 
+
+/** A corrective action of an anomaly, to the person who now owns it. */
+export function correctiveActionAssignedMail(args: {
+  to: string;
+  ownerName: string;
+  assignedBy: string;
+  anomalyRef: string;
+  anomalyTitle: string;
+  action: string;
+  dueDate: string;
+  link: string;
+}): OutgoingMail {
+  return {
+    to: args.to,
+    subject: `Corrective action for ${args.anomalyRef}: due ${args.dueDate}`,
+    text:
+      `${args.ownerName}, ${args.assignedBy} made you the owner of a corrective action for anomaly ${args.anomalyRef} ` +
+      `(${args.anomalyTitle}).\n\nTo do: ${args.action}\nDue: ${args.dueDate}\n\n` +
+      'Mark it in progress or done on the anomaly page; the anomaly cannot be closed while it is not done.\n\n' +
+      `The anomaly: ${args.link}` +
+      SIGNATURE,
+  };
+}
