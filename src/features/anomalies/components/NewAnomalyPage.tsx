@@ -39,7 +39,8 @@ const FIELDS = ['title', 'description', 'severity', 'immediateActions', 'countId
 /** Form values -> the create body. A prefilled instant keeps its milliseconds unless the field was changed. */
 export function formToAnomalyInput(v: AnomalyFormValues, exactAt: number | null): AnomalyCreateInput {
   const typed = v.at === '' ? undefined : parseInstantInput(v.at);
-  const at = exactAt !== null && typed !== undefined && instantInputValue(exactAt) === v.at ? exactAt : typed;
+  const sameSecond = exactAt !== null && typed !== undefined && Math.floor(typed / 1000) === Math.floor(exactAt / 1000);
+  const at = sameSecond ? exactAt : typed;
   const severity = /^\d+$/.test(v.severity) ? Number(v.severity) : v.severity;
   return {
     title: v.title.trim(),

@@ -11,11 +11,15 @@ export function instantInputValue(ms: number): string {
   return format(ms, INPUT_FORMAT);
 }
 
-/** A datetime-local value (with or without seconds) -> epoch ms, or undefined when it is not a time. */
+/**
+ * A datetime-local value -> epoch ms, or undefined when it is not a time. Browsers give minutes, seconds or
+ * milliseconds (2031-05-17T14:03, …T14:03:22, …T14:03:22.250) depending on the step and the value.
+ */
 export function parseInstantInput(value: string): number | undefined {
-  const text = value.length === 16 ? `${value}:00` : value;
-  const d = parse(text, INPUT_FORMAT, new Date(0));
-  return isValid(d) ? d.getTime() : undefined;
+  const m = /^(\d{4}-\d{2}-\d{2}T\d{2}:\d{2})(:\d{2})?(?:\.(\d{1,3}))?$/.exec(value);
+  if (!m) return undefined;
+  const d = parse(`${m[1]}${m[2] ?? ':00'}`, INPUT_FORMAT, new Date(0));
+  return isValid(d) ? d.getTime() + (m[3] ? Number(m[3].padEnd(3, '0')) : 0) : undefined;
 }
 
 /** Wall time with seconds, 24-hour, local: 2031-05-17 14:03:22. */
