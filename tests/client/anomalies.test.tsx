@@ -5,6 +5,7 @@ import type { AnomalyDto } from '../../src/contract/anomalies';
 import { SEVERITY_CATEGORIES } from '../../src/domain/hazards/matrix';
 import { instantInputValue } from '../../src/features/anomalies/lib/format';
 import { fakeApi, json } from './fake-api';
+import { kestrelHazards } from './hazards-fixtures';
 import { renderApp } from './render-app';
 
 const setup = json(200, { needsFirstAdmin: false, teamName: 'Tern Valley Rocketry Collective' });
@@ -193,5 +194,49 @@ describe('the anomaly page', () => {
     await screen.findByRole('heading', { level: 1, name: 'Fuel inlet pressure spike' });
     expect(screen.queryByRole('form', { name: 'Close the anomaly' })).not.toBeInTheDocument();
     expect(screen.getByText('Only a safety officer closes or reopens an anomaly.')).toBeInTheDocument();
+  });
+});
+
+describe('a new hazard from an anomaly', () => {
+  it('opens the hazard form with the anomaly’s values and, on save, adds and links it in one request', async () => {
+    const user = userEvent.setup();
+    const posts: unknown[] = [];
+    const a = anomaly();
+    fakeApi({
+      'GET /api/auth/me': json(200, safety),
+      'GET /api/setup': setup,
+      'GET /api/auth/csrf': json(200, { csrfToken: 't' }),
+      'GET /api/counts': json(200, counts),
+      ...detailFakes(a),
+      'POST /api/anomalies/5/hazards/new': ({ body }) => {
+        posts.push(JSON.parse(String(body)));
+        return json(201, kestrelHazards[0]);
+      },
+    });
+    renderApp('/hazards/new?anomaly=5');
+    const form = await screen.findByRole('form', { name: 'Add hazard and link it' });
+    expect(screen.getByText('From AN-005: Fuel inlet pressure spike')).toBeInTheDocument();
+    expect(within(form).getByLabelText('Title')).toHaveValue('Fuel inlet pressure spike');
+    expect(within(form).getByLabelText('Description')).toHaveValue(
+      'Raised from anomaly AN-005 (Fuel inlet pressure spike).\n\nThe inlet transducer read a spike above its redline.',
+    );
+    expect(within(form).getByLabelText('Phase')).toHaveValue('firing');
+    expect(within(form).getByLabelText('Initial severity')).toHaveValue('2');
+
+    await user.selectOptions(within(form).getByLabelText('System'), 'feed-system');
+    await user.selectOptions(within(form).getByLabelText('Initial likelihood'), 'C');
+    await user.click(within(form).getByRole('button', { name: 'Add hazard and link it' }));
+    expect(await screen.findByRole('heading', { level: 1, name: 'Fuel inlet pressure spike' })).toBeInTheDocument();
+    expect(posts).toHaveLength(1);
+    expect(posts[0]).toMatchObject({
+      title: 'Fuel inlet pressure spike',
+      system: 'feed-system',
+      phase: 'firing',
+      causes: ['The inlet transducer read a spike above its redline.'],
+      effects: ['Seen in AN-005; immediate actions: Held; line vented.'],
+      matrixId: 'mil-std-882e',
+      initialSeverity: 2,
+      initialLikelihood: 'C',
+    });
   });
 });
