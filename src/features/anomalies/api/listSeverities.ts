@@ -4,6 +4,7 @@ import { api } from '../../../lib/api';
 import { anomalyKeys } from './keys';
 
 export interface SeverityScale {
+  matrixId: string;
   matrixName: string;
   severities: { key: string; label: string; description?: string }[];
 }
@@ -12,7 +13,7 @@ export interface SeverityScale {
 export async function fetchSeverityScale(signal?: AbortSignal): Promise<SeverityScale> {
   const matrices = await api.get<RiskMatrixDto[]>('/api/risk-matrices', { signal });
   const m = matrices.find((x) => x.isDefault && !x.retired) ?? matrices.find((x) => x.builtIn) ?? matrices[0]!;
-  return { matrixName: m.name, severities: m.severities.map((s) => ({ key: s.key, label: s.label, description: s.description })) };
+  return { matrixId: m.id, matrixName: m.name, severities: m.severities.map((s) => ({ key: s.key, label: s.label, description: s.description })) };
 }
 
 export function severityScaleQueryOptions() {

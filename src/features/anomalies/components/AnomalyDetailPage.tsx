@@ -23,7 +23,9 @@ import { useProcedureChoices } from '../api/listProcedureChoices';
 import { useOpenLesson } from '../api/openLesson';
 import { useRemoveAnomalyFile } from '../api/removeAnomalyFile';
 import { useReopenAnomaly } from '../api/reopenAnomaly';
+import { useSeverityScale } from '../api/listSeverities';
 import { useUnlinkHazard } from '../api/unlinkHazard';
+import { useUpdateAnomaly } from '../api/updateAnomaly';
 import { useUpdateCorrectiveAction } from '../api/updateCorrectiveAction';
 import { useUploadAnomalyFile } from '../api/uploadAnomalyFile';
 import { ACTION_LOOK, canAddHazards, canClose, canDraftProcedures, canReport, STATUS_LOOK, wallTime } from '../lib/format';
@@ -113,9 +115,7 @@ export function AnomalyDetail({ a }: { a: AnomalyDto }) {
         </Section>
 
         <Section title="What happened">
-          <p className="whitespace-pre-wrap [overflow-wrap:anywhere]">{a.description}</p>
-          <h3 className="mt-4 text-lg font-bold">Immediate actions taken</h3>
-          <p className="whitespace-pre-wrap [overflow-wrap:anywhere]">{a.immediateActions || 'None recorded.'}</p>
+          <ReportFacts a={a} writable={writable} say={say} />
         </Section>
 
         <HazardsSection a={a} writable={writable} say={say} />
@@ -500,5 +500,88 @@ function CloseSection({ a, say }: { a: AnomalyDto; say: Say }) {
         <p className="mt-3 text-ink-muted">Only a safety officer closes or reopens an anomaly.</p>
       )}
     </Section>
+  );
+}
+
+/** The report's words, and a form to correct them while the anomaly is open (the count and instant stay). */
+function ReportFacts({ a, writable, say }: { a: AnomalyDto; writable: boolean; say: Say }) {
+  const update = useUpdateAnomaly();
+  const scale = useSeverityScale();
+  const [editing, setEditing] = useState(false);
+  const [title, setTitle] = useState(a.title);
+  const [description, setDescription] = useState(a.description);
+  const [immediateActions, setImmediateActions] = useState(a.immediateActions);
+  const [severity, setSeverity] = useState(String(a.severity));
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  // The severities offered are those of the matrix the report was rated on, when it is still the team's default.
+  const severities = scale.data && scale.data.matrixId === a.matrixId ? scale.data.severities : null;
+
+  const start = () => {
+    setTitle(a.title);
+    setDescription(a.description);
+    setImmediateActions(a.immediateActions);
+    setSeverity(String(a.severity));
+    setErrors({});
+    setEditing(true);
+  };
+  const submit = async (e: FormEvent) => {
+    e.preventDefault();
+    const problems: Record<string, string> = {};
+    if (!title.trim()) problems.title = 'Enter a title';
+    if (!description.trim()) problems.description = 'Say what happened';
+    setErrors(problems);
+    if (Object.keys(problems).length) return;
+    try {
+      await update.mutateAsync({
+        id: a.id,
+        title: title.trim(),
+        description: description.trim(),
+        immediateActions: immediateActions.trim(),
+        ...(severities ? { severity: /^\d+$/.test(severity) ? Number(severity) : severity } : {}),
+      });
+      setEditing(false);
+      say('success', 'Saved the corrections; the history says what changed.');
+    } catch (err) {
+      const next: Record<string, string> = {};
+      if (isApiError(err)) for (const d of err.details) next[d.path] = d.message;
+      setErrors(Object.keys(next).length ? next : { form: errorMessage(err) });
+    }
+  };
+
+  if (!editing)
+    return (
+      <>
+        <p className="whitespace-pre-wrap [overflow-wrap:anywhere]">{a.description}</p>
+        <h3 className="mt-4 text-lg font-bold">Immediate actions taken</h3>
+        <p className="whitespace-pre-wrap [overflow-wrap:anywhere]">{a.immediateActions || 'None recorded.'}</p>
+        {writable ? (
+          <Button className="mt-3" onClick={start}>
+            Correct the report
+          </Button>
+        ) : null}
+      </>
+    );
+  return (
+    <Form onSubmit={(e) => void submit(e)} aria-label="Correct the report">
+      {errors.form ? (
+        <Notice tone="danger" title="Not saved">
+          <p>{errors.form}</p>
+        </Notice>
+      ) : null}
+      <TextField label="Title" value={title} maxLength={200} error={errors.title} onChange={(e) => setTitle(e.target.value)} />
+      <TextAreaField label="What happened" value={description} error={errors.description} onChange={(e) => setDescription(e.target.value)} />
+      {severities ? (
+        <SelectField label="Severity" options={severities.map((s) => ({ value: s.key, label: `${s.key} ${s.label}` }))} value={severity} error={errors.severity} onChange={(e) => setSeverity(e.target.value)} />
+      ) : null}
+      <TextAreaField label="Immediate actions taken" value={immediateActions} error={errors.immediateActions} onChange={(e) => setImmediateActions(e.target.value)} />
+      <FormActions>
+        <Button type="submit" variant="primary" pending={update.isPending} pendingLabel="Saving…">
+          Save corrections
+        </Button>
+        <Button variant="quiet" onClick={() => setEditing(false)}>
+          Cancel
+        </Button>
+      </FormActions>
+    </Form>
   );
 }
