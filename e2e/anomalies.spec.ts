@@ -63,6 +63,7 @@ test('a safety officer reports an anomaly, links a hazard, adds a corrective act
   await expect(page.getByRole('heading', { level: 2, name: 'Closed' })).toBeVisible();
   await expect(page.getByRole('form', { name: 'Reopen the anomaly' })).toBeVisible();
   await expectAccessible(page, 'anomaly page, desk, daylight');
+  await page.screenshot({ path: 'e2e/screenshots/anomaly-desk-daylight.png', fullPage: true });
 
   // On a phone at night: the list and the page fit the width.
   await page.setViewportSize({ width: 390, height: 844 });
@@ -71,8 +72,10 @@ test('a safety officer reports an anomaly, links a hazard, adds a corrective act
   await expect(page.locator('html')).toHaveAttribute('data-theme', 'night');
   await expect(page.getByRole('heading', { level: 1, name: title })).toBeVisible();
   await noSidewaysScroll(page, 'anomaly page at 390 px');
+  await page.screenshot({ path: 'e2e/screenshots/anomaly-phone-night.png', fullPage: true });
   await page.goto('/anomalies?status=closed');
   await expect(page.getByRole('link', { name: title })).toBeVisible();
   await noSidewaysScroll(page, 'anomaly list at 390 px');
+  await page.screenshot({ path: 'e2e/screenshots/anomalies-phone-night.png', fullPage: true });
   await expectAccessible(page, 'anomaly list, phone, night', { rules: ['color-contrast'] });
 });

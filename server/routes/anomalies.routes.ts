@@ -36,7 +36,7 @@ import {
 } from '../anomalies/anomalies';
 import { notifyCorrectiveActionAssigned, type NotifyDeps } from '../anomalies/notify';
 import type { CountService } from '../counts/service';
-import { badRequest, conflict, notFound } from '../http/errors';
+import { badRequest, conflict, HttpError, notFound } from '../http/errors';
 import { route } from '../http/route';
 import { createHazard, findHazard, hazardCode, hazardDtoFor, record } from '../hazards/hazards';
 import { defaultMatrixId, resolveMatrix } from '../hazards/matrices';
@@ -56,6 +56,14 @@ const quote = (s: string) => `“${s}”`;
 
 function refuseWhenClosed(a: Anomaly) {
   if (a.status === 'closed') throw conflict(`${anomalyRef(a.number)} is closed. A safety officer must reopen it before it can be changed.`, 'anomaly_closed');
+}
+
+/** A 404 for something named in the body is the caller's mistake at that field (400); anything else goes on. */
+function asBadRequest(message: string, code: string, path: string, fieldMessage: string) {
+  return (error: unknown): never => {
+    if (error instanceof HttpError && error.status === 404) throw badRequest(message, code, [{ path, message: fieldMessage }]);
+    throw error;
+  };
 }
 
 async function activeMember(teamId: number, id: number, path: string, t: Transaction): Promise<User> {
@@ -267,9 +275,9 @@ export function anomalyRoutes(deps: AnomalyRouteDeps) {
         return tx(async (t) => {
           const a = await findAnomaly(teamId, params.id, t);
           refuseWhenClosed(a);
-          const h = await findHazard(teamId, body.hazardId, t).catch(() => {
-            throw badRequest('There is no such hazard in your register.', 'unknown_hazard', [{ path: 'hazardId', message: 'No such hazard.' }]);
-          });
+          const h = await findHazard(teamId, body.hazardId, t).catch(
+            asBadRequest('There is no such hazard in your register.', 'unknown_hazard', 'hazardId', 'No such hazard.'),
+          );
           if ((a.hazards ?? []).some((x) => x.id === h.id)) throw conflict(`${hazardCode(h.number)} is already linked to this anomaly.`, 'already_linked');
           await AnomalyHazard.create({ anomalyId: a.id, hazardId: h.id, createdById: actor.id }, { transaction: t });
           await say(a.id, actor, `Linked the hazard ${hazardCode(h.number)} ${quote(h.title)}.`, t);
@@ -446,9 +454,9 @@ export function anomalyRoutes(deps: AnomalyRouteDeps) {
         const actor = actorOf(user);
         return tx(async (t) => {
           const a = await findAnomaly(teamId, params.id, t);
-          const p = await findProcedure(teamId, body.procedureId, t).catch(() => {
-            throw badRequest('There is no such procedure in your team.', 'unknown_procedure', [{ path: 'procedureId', message: 'No such procedure.' }]);
-          });
+          const p = await findProcedure(teamId, body.procedureId, t).catch(
+            asBadRequest('There is no such procedure in your team.', 'unknown_procedure', 'procedureId', 'No such procedure.'),
+          );
           // One draft at a time per procedure: an open one is linked rather than a second made.
           const open = revisionsOf(p).find((r) => r.status === 'draft');
           const draft = open ?? (await openDraft(p, actor.id, t));
