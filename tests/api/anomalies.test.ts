@@ -54,8 +54,9 @@ const report = (c: TestClient, body: object) => c.post('/api/anomalies', body);
 const anomalyCount = () => Anomaly.count();
 
 /**
- * The expected T is worked out here by hand from the log's own times: the count started at T-15 s and its clock
- * runs one second per second until the hold stops it. Shown as the console's clock shows it, by floor.
+ * The expected T is worked out here by hand from the log's own times, not with the domain's functions: the count
+ * started at T-15 s and a count clock runs one second per second until a hold stops it, then stands still (the
+ * trade's meaning of a hold; common practice, no source). Shown as the console's clock shows it, by floor.
  */
 function expectedT(at: number): number {
   return -15 + (Math.min(at, count.holdAt) - count.startedAt) / 1000;

@@ -1,9 +1,11 @@
-import { screen, within } from '@testing-library/react';
+import { render, screen, within } from '@testing-library/react';
+import { MemoryRouter } from 'react-router-dom';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import type { AnomalyDto } from '../../src/contract/anomalies';
 import { SEVERITY_CATEGORIES } from '../../src/domain/hazards/matrix';
 import { instantInputValue } from '../../src/features/anomalies/lib/format';
+import { RevisionAnomalies } from '../../src/features/procedures/components/RevisionAnomalies';
 import { fakeApi, json } from './fake-api';
 import { kestrelHazards } from './hazards-fixtures';
 import { renderApp } from './render-app';
@@ -238,5 +240,47 @@ describe('a new hazard from an anomaly', () => {
       initialSeverity: 2,
       initialLikelihood: 'C',
     });
+  });
+});
+
+describe('the register and the procedures', () => {
+  it('a hazard lists the anomalies linked to it and the procedure revisions they caused', async () => {
+    const linked = anomaly({
+      hazardIds: [1],
+      revisions: [{ procedureId: 1, procedureName: 'Kestrel-2 hot fire', revisionNumber: 3, revisionStatus: 'draft', drafted: true, at: new Date(AT).toISOString() }],
+    });
+    fakeApi({
+      'GET /api/auth/me': json(200, auditor),
+      'GET /api/setup': setup,
+      'GET /api/auth/csrf': json(200, { csrfToken: 't' }),
+      'GET /api/hazards/1': () => json(200, kestrelHazards[0]),
+      'GET /api/hazards/1/history': json(200, []),
+      'GET /api/anomalies?hazardId=1': json(200, [linked]),
+    });
+    renderApp('/hazards/1');
+    const list = await screen.findByRole('list', { name: 'Anomalies linked to this hazard' });
+    expect(within(list).getByRole('link', { name: 'AN-005 Fuel inlet pressure spike' })).toHaveAttribute('href', '/anomalies/5');
+    expect(within(list).getByRole('link', { name: 'Kestrel-2 hot fire, revision 3' })).toHaveAttribute('href', '/procedures/1/revisions/3');
+    expect(list).toHaveTextContent('drafted because of it');
+  });
+
+  it('a procedure revision says which anomaly drafted it, and which were linked to it', () => {
+    const rev = (drafted: boolean) => ({ procedureId: 1, procedureName: 'Kestrel-2 hot fire', revisionNumber: 3, revisionStatus: 'draft', drafted, at: new Date(AT).toISOString() });
+    const other = { procedureId: 2, procedureName: 'Igniter check', revisionNumber: 3, revisionStatus: 'draft', drafted: true, at: new Date(AT).toISOString() };
+    render(
+      <MemoryRouter>
+        <RevisionAnomalies
+          anomalies={[anomaly({ revisions: [rev(true)] }), anomaly({ id: 6, ref: 'AN-006', title: 'Purge line crack', revisions: [rev(false), other] })]}
+          procedureId={1}
+          revisionNumber={3}
+        />
+      </MemoryRouter>,
+    );
+    const items = screen.getAllByRole('listitem');
+    expect(items.map((li) => li.textContent)).toEqual([
+      'Revision 3 drafted because of anomaly AN-005 Fuel inlet pressure spike',
+      'Revision 3 linked to anomaly AN-006 Purge line crack',
+    ]);
+    expect(within(items[0]!).getByRole('link')).toHaveAttribute('href', '/anomalies/5');
   });
 });
