@@ -78,4 +78,8 @@ test('a safety officer reports an anomaly, links a hazard, adds a corrective act
   await noSidewaysScroll(page, 'anomaly list at 390 px');
   await page.screenshot({ path: 'e2e/screenshots/anomalies-phone-night.png', fullPage: true });
   await expectAccessible(page, 'anomaly list, phone, night', { rules: ['color-contrast'] });
+  await page.goto('/anomalies/new');
+  await expect(page.getByRole('form', { name: 'Report an anomaly' })).toBeVisible();
+  await noSidewaysScroll(page, 'report form at 390 px');
+  await page.screenshot({ path: 'e2e/screenshots/anomaly-new-phone-night.png', fullPage: true });
 });

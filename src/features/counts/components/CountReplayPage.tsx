@@ -10,6 +10,7 @@ import { HOLD_CATEGORY_LABELS, type CountEvent } from '../../../domain/count/eve
 import { reduce, stateAt } from '../../../domain/count/reduce';
 import { initialCountState, tAt } from '../../../domain/count/state';
 import { api, errorMessage } from '../../../lib/api';
+import { useSignedInMe } from '../../../lib/session';
 import { countKeys } from '../api/keys';
 import { logT, type LogEntry } from '../hooks/useLiveCount';
 import { BigClock, CountLog, HoldBanner, PollTable, StatusLine, StepCard } from './CountParts';
@@ -55,7 +56,12 @@ export function CountReplayPage() {
   return <Replay countId={countId} events={events.data as unknown as CountEvent[]} />;
 }
 
+// Who may report an anomaly (the server's rule, server/routes/anomalies.routes.ts); others only read them.
+const REPORTERS = ['conductor', 'safety', 'admin', 'operator'] as const;
+
 function Replay({ countId, events }: { countId: number; events: CountEvent[] }) {
+  const me = useSignedInMe();
+  const mayReport = me.roles.some((r) => (REPORTERS as readonly string[]).includes(r));
   const [params, setParams] = useSearchParams();
   const first = events[0]!.at;
   const last = events.at(-1)!.at;
@@ -124,7 +130,7 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
       actions={
         <>
           <Link to={`/counts/${countId}/report`}>Count report</Link>
-          <Link to={`/anomalies/new?countId=${countId}&at=${Math.round(at)}`}>Report anomaly at this instant</Link>
+          {mayReport ? <Link to={`/anomalies/new?countId=${countId}&at=${Math.round(at)}`}>Report anomaly at this instant</Link> : null}
         </>
       }
     >
