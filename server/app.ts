@@ -22,6 +22,7 @@ import { countRoom, CountService } from './counts/service';
 import { registerClockHandlers } from './realtime/clock.handlers';
 import { registerCountHandlers } from './realtime/count.handlers';
 import type { HoldfireServer } from './realtime/types';
+import { anomalyRoutes } from './routes/anomalies.routes';
 import { authRoutes } from './routes/auth.routes';
 import { calcRoutes } from './routes/calc.routes';
 import { countRoutes } from './routes/counts.routes';
@@ -153,6 +154,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...stationRoutes(),
     ...crewPlanRoutes(),
     ...countRoutes({ counts, notifier }),
+    ...anomalyRoutes({ uploads, counts, notifier, appUrl: config.appUrl, log }),
   ];
 
   const api = express.Router();

@@ -393,7 +393,7 @@ function fromRaw(row: RawEvent): StoredEvent {
   };
 }
 
-function toStored(row: CountEvent): StoredEvent {
+export function toStored(row: CountEvent): StoredEvent {
   return {
     countId: row.countId,
     seq: row.seq,

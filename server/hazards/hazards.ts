@@ -1,6 +1,6 @@
 /** Loading, checking and presenting hazards; the routes stay thin. */
 import type { Transaction } from 'sequelize';
-import type { AcceptanceProgressDto, EvidenceDto, HazardDto, MitigationDto } from '../../src/contract/hazards';
+import type { AcceptanceProgressDto, EvidenceDto, HazardCreateInputParsed, HazardDto, MitigationDto } from '../../src/contract/hazards';
 import { BUILT_IN_MATRIX_ID } from '../../src/contract/hazards';
 import { acceptanceProgress } from '../../src/domain/hazards/acceptance';
 import { MatrixKeyError, riskLevel } from '../../src/domain/hazards/matrix';
@@ -8,7 +8,7 @@ import { byPrecedence, checkResidual, type MitigationKind } from '../../src/doma
 import { badRequest, notFound } from '../http/errors';
 import { Hazard, HazardAcceptance, HazardHistory, Mitigation, MitigationEvidence, Upload, User } from '../models';
 import { uploadDto } from '../uploads';
-import { resolveMatrix, severityOut, type ResolvedMatrix } from './matrices';
+import { defaultMatrixId, resolveMatrix, severityOut, type ResolvedMatrix } from './matrices';
 
 export const hazardCode = (n: number) => `HZ-${String(n).padStart(3, '0')}`;
 
@@ -199,4 +199,28 @@ export function hazardDto(h: Hazard, m: ResolvedMatrix): HazardDto {
 export async function hazardDtoFor(teamId: number, id: number, transaction?: Transaction): Promise<HazardDto> {
   const h = await findHazard(teamId, id, transaction);
   return hazardDto(h, await resolveMatrix(teamId, h.matrixId, transaction));
+}
+
+export function refuseRetired(m: ResolvedMatrix) {
+  if (m.retiredAt !== null) {
+    const message = `The matrix '${m.matrix.name}' is retired: choose another matrix for this assessment.`;
+    throw badRequest(message, 'matrix_retired', [{ path: 'matrixId', message }]);
+  }
+}
+
+/** Adds a hazard to the register (checked, numbered, its creation in the history); the caller's transaction. */
+export async function createHazard(teamId: number, actor: Actor, body: HazardCreateInputParsed, t: Transaction): Promise<Hazard> {
+  const risk: RiskFields = {
+    matrixId: body.matrixId ?? (await defaultMatrixId(teamId, t)),
+    initialSeverity: body.initialSeverity,
+    initialLikelihood: body.initialLikelihood,
+    residualSeverity: body.residualSeverity ?? null,
+    residualLikelihood: body.residualLikelihood ?? null,
+  };
+  // A new hazard has no mitigations, so a lowered residual is refused here.
+  refuseRetired(await checkRiskFields(teamId, risk, [], t));
+  const last = (await Hazard.max('number', { where: { teamId }, transaction: t })) as number | null;
+  const h = await Hazard.create({ ...body, ...risk, teamId, number: (last ?? 0) + 1, createdById: actor.id }, { transaction: t });
+  await record(h.id, actor, 'created', null, { code: hazardCode(h.number), title: h.title }, t);
+  return h;
 }

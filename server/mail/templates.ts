@@ -77,7 +77,6 @@ export function countReportMail(args: {
   };
 }
 
-
 /** To one crew member when a count is created: their station(s), when to report, the window, the link. */
 export function countScheduledNotice(args: {
   plan: Pick<CountPlan, 'name' | 'crew' | 'revisionNumber'>;
@@ -100,5 +99,28 @@ export function countScheduledNotice(args: {
     ]
       .filter((l) => l !== null)
       .join('\n'),
+  };
+}
+
+/** A corrective action of an anomaly, to the person who now owns it. */
+export function correctiveActionAssignedMail(args: {
+  to: string;
+  ownerName: string;
+  assignedBy: string;
+  anomalyRef: string;
+  anomalyTitle: string;
+  action: string;
+  dueDate: string;
+  link: string;
+}): OutgoingMail {
+  return {
+    to: args.to,
+    subject: `Corrective action for ${args.anomalyRef}: due ${args.dueDate}`,
+    text:
+      `${args.ownerName}, ${args.assignedBy} made you the owner of a corrective action for anomaly ${args.anomalyRef} ` +
+      `(${args.anomalyTitle}).\n\nTo do: ${args.action}\nDue: ${args.dueDate}\n\n` +
+      'Mark it in progress or done on the anomaly page; the anomaly cannot be closed while it is not done.\n\n' +
+      `The anomaly: ${args.link}` +
+      SIGNATURE,
   };
 }

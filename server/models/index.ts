@@ -1,4 +1,10 @@
 import type { Sequelize } from 'sequelize';
+import { AnomalyAttachment } from './anomaly-attachment.model';
+import { AnomalyHazard } from './anomaly-hazard.model';
+import { AnomalyHistory } from './anomaly-history.model';
+import { AnomalyRevision } from './anomaly-revision.model';
+import { Anomaly } from './anomaly.model';
+import { CorrectiveAction } from './corrective-action.model';
 import { CountEvent } from './count-event.model';
 import { Count } from './count.model';
 import { CrewAssignment } from './crew-assignment.model';
@@ -51,6 +57,12 @@ const MODELS = {
   Count,
   CountEvent,
   NotificationDigestItem,
+  Anomaly,
+  AnomalyHazard,
+  AnomalyAttachment,
+  CorrectiveAction,
+  AnomalyHistory,
+  AnomalyRevision,
 };
 
 /** Every model and association, in one place. */
@@ -113,10 +125,35 @@ export function initModels(sequelize: Sequelize) {
   CountEvent.belongsTo(Count, { foreignKey: 'countId' });
   User.hasMany(NotificationDigestItem, { foreignKey: 'userId', onDelete: 'CASCADE' });
 
+  Team.hasMany(Anomaly, { foreignKey: 'teamId' });
+  Anomaly.belongsTo(Count, { as: 'count', foreignKey: 'countId' });
+  Anomaly.belongsTo(User, { as: 'reportedBy', foreignKey: 'reportedById' });
+  Anomaly.belongsTo(User, { as: 'closedBy', foreignKey: 'closedById' });
+  Anomaly.belongsToMany(Hazard, { through: AnomalyHazard, as: 'hazards', foreignKey: 'anomalyId', otherKey: 'hazardId' });
+  Hazard.belongsToMany(Anomaly, { through: AnomalyHazard, as: 'anomalies', foreignKey: 'hazardId', otherKey: 'anomalyId' });
+  AnomalyHazard.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+  Anomaly.hasMany(AnomalyAttachment, { as: 'attachments', foreignKey: 'anomalyId', onDelete: 'CASCADE' });
+  AnomalyAttachment.belongsTo(Upload, { as: 'upload', foreignKey: 'uploadId' });
+  AnomalyAttachment.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+  Anomaly.hasMany(CorrectiveAction, { as: 'actions', foreignKey: 'anomalyId', onDelete: 'CASCADE' });
+  CorrectiveAction.belongsTo(User, { as: 'owner', foreignKey: 'ownerId' });
+  Anomaly.hasMany(AnomalyHistory, { as: 'history', foreignKey: 'anomalyId', onDelete: 'CASCADE' });
+  AnomalyHistory.belongsTo(User, { foreignKey: 'userId' });
+  Anomaly.hasMany(AnomalyRevision, { as: 'revisionLinks', foreignKey: 'anomalyId', onDelete: 'CASCADE' });
+  AnomalyRevision.belongsTo(Anomaly, { as: 'anomaly', foreignKey: 'anomalyId' });
+  AnomalyRevision.belongsTo(ProcedureRevision, { as: 'revision', foreignKey: 'revisionId' });
+  AnomalyRevision.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+
   return MODELS;
 }
 
 export {
+  Anomaly,
+  AnomalyAttachment,
+  AnomalyHazard,
+  AnomalyHistory,
+  AnomalyRevision,
+  CorrectiveAction,
   Count,
   CountEvent,
   CrewAssignment,

@@ -301,3 +301,31 @@ export async function stationUses(teamId: number, code: string, transaction?: Tr
   }
   return uses;
 }
+
+/**
+ * A new draft revision from the latest one: its phases, and its diagrams (the same uploads, linked again). The
+ * caller has checked that no draft is open. Used by "new revision" and by lessons learned from an anomaly.
+ */
+export async function openDraft(p: Procedure, userId: number, transaction: Transaction): Promise<ProcedureRevision> {
+  const revisions = revisionsOf(p);
+  const latest = revisions[revisions.length - 1]!;
+  const draft = await ProcedureRevision.create(
+    {
+      procedureId: p.id,
+      number: latest.number + 1,
+      status: 'draft',
+      basedOn: latest.number,
+      phases: latest.phases,
+      releasedCautions: null,
+      releasedAt: null,
+      createdById: userId,
+      updatedById: userId,
+    },
+    { transaction },
+  );
+  await ProcedureAttachment.bulkCreate(
+    (latest.attachments ?? []).map((a) => ({ revisionId: draft.id, stepKey: a.stepKey, uploadId: a.uploadId, caption: a.caption, createdById: a.createdById })),
+    { transaction },
+  );
+  return draft;
+}

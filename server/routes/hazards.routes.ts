@@ -22,20 +22,21 @@ import { roleHolders, type Notifier } from '../mail/notify';
 import { runCalc } from '../hazards/calc';
 import {
   checkRiskFields,
+  createHazard,
   evidenceFacts,
   findHazard,
-  hazardCode,
   hazardDto,
   hazardDtoFor,
   HAZARD_INCLUDE,
   mitigationDto,
   record,
+  refuseRetired,
   residualLevel,
   riskFieldsOf,
   type Actor,
   type RiskFields,
 } from '../hazards/hazards';
-import { defaultMatrixId, resolveMatrix, severityOut, type ResolvedMatrix } from '../hazards/matrices';
+import { resolveMatrix, severityOut } from '../hazards/matrices';
 import { Hazard, HazardAcceptance, HazardHistory, Mitigation, MitigationEvidence, type Upload } from '../models';
 import { acceptUpload, singleFileUpload, type UploadStore } from '../uploads';
 
@@ -76,13 +77,6 @@ function kindsOf(h: Hazard): MitigationKind[] {
 async function recheckResidual(teamId: number, h: Hazard, kinds: MitigationKind[], t: Transaction) {
   if (h.residualLikelihood === null) return;
   await checkRiskFields(teamId, riskFieldsOf(h), kinds, t);
-}
-
-function refuseRetired(m: ResolvedMatrix) {
-  if (m.retiredAt !== null) {
-    const message = `The matrix '${m.matrix.name}' is retired: choose another matrix for this assessment.`;
-    throw badRequest(message, 'matrix_retired', [{ path: 'matrixId', message }]);
-  }
 }
 
 function refuseWhenClosed(h: Hazard) {
@@ -146,21 +140,7 @@ export function hazardRoutes({ uploads, notifier }: { uploads: UploadStore; noti
         const teamId = user!.teamId;
         const actor = actorOf(user);
         return tx(async (t) => {
-          const risk: RiskFields = {
-            matrixId: body.matrixId ?? (await defaultMatrixId(teamId, t)),
-            initialSeverity: body.initialSeverity,
-            initialLikelihood: body.initialLikelihood,
-            residualSeverity: body.residualSeverity ?? null,
-            residualLikelihood: body.residualLikelihood ?? null,
-          };
-          // A new hazard has no mitigations, so a lowered residual is refused here.
-          refuseRetired(await checkRiskFields(teamId, risk, [], t));
-          const last = (await Hazard.max('number', { where: { teamId }, transaction: t })) as number | null;
-          const h = await Hazard.create(
-            { ...body, ...risk, teamId, number: (last ?? 0) + 1, createdById: actor.id },
-            { transaction: t },
-          );
-          await record(h.id, actor, 'created', null, { code: hazardCode(h.number), title: h.title }, t);
+          const h = await createHazard(teamId, actor, body, t);
           return hazardDtoFor(teamId, h.id, t);
         });
       },

@@ -31,6 +31,7 @@ import {
   findProcedure,
   findRevision,
   keyed,
+  openDraft,
   procedureDto,
   procedureSummary,
   referencesOf,
@@ -161,31 +162,11 @@ export function procedureRoutes({ uploads, notifier }: { uploads: UploadStore; n
         const teamId = user!.teamId;
         return tx(async (t) => {
           const p = await findProcedure(teamId, params.id, t);
-          const revisions = revisionsOf(p);
-          const open = revisions.find((r) => r.status === 'draft');
+          const open = revisionsOf(p).find((r) => r.status === 'draft');
           if (open) throw conflict(`Revision ${open.number} is still a draft. Finish and release it, or discard it, before opening another.`, 'draft_open');
-          const latest = revisions[revisions.length - 1]!;
-          const draft = await ProcedureRevision.create(
-            {
-              procedureId: p.id,
-              number: latest.number + 1,
-              status: 'draft',
-              basedOn: latest.number,
-              phases: latest.phases,
-              releasedCautions: null,
-              releasedAt: null,
-              createdById: user!.id,
-              updatedById: user!.id,
-            },
-            { transaction: t },
-          );
-          // The diagrams come along: the same uploads, linked again from the new draft.
-          await ProcedureAttachment.bulkCreate(
-            (latest.attachments ?? []).map((a) => ({ revisionId: draft.id, stepKey: a.stepKey, uploadId: a.uploadId, caption: a.caption, createdById: a.createdById })),
-            { transaction: t },
-          );
+          const draft = await openDraft(p, user!.id, t);
           const fresh = await findProcedure(teamId, p.id, t);
-          return revisionDto(fresh, findRevision(fresh, latest.number + 1), await cautionContext(teamId, t));
+          return revisionDto(fresh, findRevision(fresh, draft.number), await cautionContext(teamId, t));
         });
       },
     }),

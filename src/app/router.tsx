@@ -5,6 +5,9 @@ import { AcceptInvitationPage } from '../features/auth/components/AcceptInvitati
 import { CompletePasswordResetPage } from '../features/auth/components/CompletePasswordResetPage';
 import { RequestPasswordResetPage } from '../features/auth/components/RequestPasswordResetPage';
 import { SetupPage } from '../features/auth/components/SetupPage';
+import { AnomaliesPage } from '../features/anomalies/components/AnomaliesPage';
+import { AnomalyDetailPage } from '../features/anomalies/components/AnomalyDetailPage';
+import { NewAnomalyPage } from '../features/anomalies/components/NewAnomalyPage';
 import { SignInPage } from '../features/auth/components/SignInPage';
 import { EngineeringChecksPage } from '../features/hazards/components/EngineeringChecksPage';
 import { HazardDetailPage } from '../features/hazards/components/HazardDetailPage';
@@ -95,6 +98,9 @@ export const routes: RouteObject[] = [
               { path: 'counts/:id', element: <Lazy><CountPage /></Lazy> },
               { path: 'counts/:id/report', element: <Lazy><CountReportPage /></Lazy> },
               { path: 'counts/:id/replay', element: <Lazy><CountReplayPage /></Lazy> },
+              { path: 'anomalies', element: <AnomaliesPage /> },
+              { path: 'anomalies/new', element: <NewAnomalyPage /> },
+              { path: 'anomalies/:id', element: <AnomalyDetailPage /> },
               { path: 'records', element: <RecordsPage /> },
               { path: 'profile', element: <ProfilePage /> },
               {

@@ -114,6 +114,7 @@ export const hazardCreateInputSchema = z.strictObject({
   residualLikelihood: hazardFields.residualLikelihood.optional(),
 });
 export type HazardCreateInput = z.input<typeof hazardCreateInputSchema>;
+export type HazardCreateInputParsed = z.output<typeof hazardCreateInputSchema>;
 
 /** Status is not patchable: use POST /api/hazards/:id/status. */
 export const hazardUpdateInputSchema = z

@@ -1,4 +1,4 @@
-import { screen, within } from '@testing-library/react';
+import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { CREATED, kestrelPlan } from '../domain/count-fixture';
@@ -30,7 +30,7 @@ function open(path: string) {
 describe('the replay', () => {
   it('shows the count at the instant in the address, and jumps to the next hold with its reason and who called it', async () => {
     const user = userEvent.setup();
-    open(`/counts/5/replay?at=${CREATED + 50_000}`);
+    const { router } = open(`/counts/5/replay?at=${CREATED + 50_000}`);
     // 48 s after the start: T-30:00 + 48 s.
     expect(await screen.findByRole('timer')).toHaveTextContent('T-00:29:12');
     expect(screen.queryByRole('region', { name: 'Hold' })).not.toBeInTheDocument();
@@ -44,6 +44,10 @@ describe('the replay', () => {
     expect(within(banner).getByText('Propellant: LOX vent valve slow to close')).toBeInTheDocument();
     expect(within(banner).getByText(/h1 called by PROP \(Rowan Fenn\)/)).toBeInTheDocument();
     expect(within(screen.getByRole('region', { name: 'Count log' })).getByText(/HOLD h1 called by PROP/)).toBeInTheDocument();
+    // An anomaly can be reported at the instant shown, which is also the one in the address.
+    await waitFor(() => expect(new URLSearchParams(router.state.location.search).get('at')).not.toBe(String(CREATED + 50_000)));
+    const at = new URLSearchParams(router.state.location.search).get('at');
+    expect(screen.getByRole('link', { name: 'Report anomaly at this instant' })).toHaveAttribute('href', `/anomalies/new?countId=5&at=${at}`);
   });
 
   it('shows the station board and each poll’s answers as they stood at the instant', async () => {

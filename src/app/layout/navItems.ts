@@ -13,6 +13,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { to: '/hazards', label: 'Hazards' },
   { to: '/procedures', label: 'Procedures' },
   { to: '/counts', label: 'Live count' },
+  { to: '/anomalies', label: 'Anomalies' },
   { to: '/records', label: 'Records' },
   { to: '/admin/people', label: 'People', roles: ['admin'] },
   { to: '/admin/mail', label: 'Mail outbox', roles: ['admin'] },

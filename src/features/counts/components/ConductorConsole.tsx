@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { Link } from 'react-router-dom';
 import { Button } from '../../../components/ui/Button';
 import { CheckboxGroup, TextField } from '../../../components/ui/Field';
 import { Notice } from '../../../components/ui/Notice';
@@ -71,7 +72,7 @@ function PollOpener({ state, onOpen, onCancel }: { state: CountState; onOpen: (s
 }
 
 /** The test conductor's screen: the clock, the holds, the poll, the stations, the controls and the log. */
-export function ConductorConsole({ live, me, manned }: { live: LiveCount; me: Me; manned: readonly string[] }) {
+export function ConductorConsole({ live, me, manned, countId }: { live: LiveCount; me: Me; manned: readonly string[]; countId: number }) {
   const { state, send } = live;
   const now = useServerNow(live.offset);
   const [problem, setProblem] = useState<string | null>(null);
@@ -128,7 +129,13 @@ export function ConductorConsole({ live, me, manned }: { live: LiveCount; me: Me
             </Notice>
           ) : null}
         </div>
-        <ConnectionBadge connection={live.connection} queued={live.queued} />
+        <div className="flex flex-col gap-2">
+          <ConnectionBadge connection={live.connection} queued={live.queued} />
+          {/* The instant is read when the link is followed: now, as the server's clock has it. */}
+          <Link to={`/anomalies/new?countId=${countId}&at=${Math.round(now)}`} className="font-bold">
+            Report anomaly now
+          </Link>
+        </div>
       </div>
 
       <HoldBanner state={state} canClear={(h) => mayClearHold(h, me, manned)} onClear={(h) => void run(send({ type: 'hold:clear', holdId: h.holdId }))} />

@@ -76,7 +76,7 @@ export function CountPage() {
         ) : undefined
       }
     >
-      {view === 'console' ? <ConductorConsole live={live} me={me} manned={manned} /> : null}
+      {view === 'console' ? <ConductorConsole live={live} me={me} manned={manned} countId={countId} /> : null}
       {view === 'station' ? <StationPanel live={live} me={me} station={station} manned={manned} /> : null}
       {view === 'watch' ? <WatchView live={live} /> : null}
       {view !== 'station' ? <RecordCheck countId={countId} /> : null}

@@ -13,6 +13,7 @@ import { initialCountState, tAt } from '../../../domain/count/state';
 import { instantsAtT } from '../../../domain/count/timeline';
 import { formatTMinus, parseTMinus, T_MINUS_HINT } from '../../../domain/procedures/tminus';
 import { api, errorMessage } from '../../../lib/api';
+import { useSignedInMe } from '../../../lib/session';
 import { countKeys } from '../api/keys';
 import { logT, type LogEntry } from '../hooks/useLiveCount';
 import { RecordCheck } from './RecordCheck';
@@ -59,7 +60,12 @@ export function CountReplayPage() {
   return <Replay countId={countId} events={events.data as unknown as CountEvent[]} />;
 }
 
+// Who may report an anomaly (the server's rule, server/routes/anomalies.routes.ts); others only read them.
+const REPORTERS = ['conductor', 'safety', 'admin', 'operator'] as const;
+
 function Replay({ countId, events }: { countId: number; events: CountEvent[] }) {
+  const me = useSignedInMe();
+  const mayReport = me.roles.some((r) => (REPORTERS as readonly string[]).includes(r));
   const [params, setParams] = useSearchParams();
   const first = events[0]!.at;
   const last = events.at(-1)!.at;
@@ -141,7 +147,16 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
   const pct = (ms: number) => Math.min(100, Math.max(0, ((ms - first) / span) * 100));
 
   return (
-    <Page title={`Replay: ${plan?.name ?? `count ${countId}`}`} kicker="Replay from the count log" actions={<Link to={`/counts/${countId}/report`}>Count report</Link>}>
+    <Page
+      title={`Replay: ${plan?.name ?? `count ${countId}`}`}
+      kicker="Replay from the count log"
+      actions={
+        <>
+          <Link to={`/counts/${countId}/report`}>Count report</Link>
+          {mayReport ? <Link to={`/anomalies/new?countId=${countId}&at=${Math.round(at)}`}>Report anomaly at this instant</Link> : null}
+        </>
+      }
+    >
       <div className="flex flex-col gap-4">
         <section aria-label="Instant" className="flex flex-col gap-2 rounded-md border-2 border-line bg-surface p-3">
           <p className="text-lg font-bold">

@@ -8,6 +8,7 @@ import { useSignedInMe } from '../../../lib/session';
 import { useHazard } from '../api/getHazard';
 import { useUpdateHazard } from '../api/updateHazard';
 import { canEditHazards } from '../lib/labels';
+import { HazardAnomalies } from './HazardAnomalies';
 import { HazardFacts } from './HazardFacts';
 import { HazardForm } from './HazardForm';
 import { HazardsNav } from './HazardsNav';
@@ -110,6 +111,9 @@ function HazardDetail({ id }: { id: number }) {
         </Section>
         <Section title="Status and acceptance">
           <StatusPanel hazard={h} me={me} canEdit={canEdit} />
+        </Section>
+        <Section title="Anomalies">
+          <HazardAnomalies hazardId={h.id} />
         </Section>
         <Section title="History">
           <HistoryPanel hazardId={h.id} />

@@ -129,19 +129,22 @@ function MatrixLevels({ matrix }: { matrix: MatrixView }) {
 
 export function HazardForm({
   initial,
+  prefill,
   submitLabel,
   pendingLabel,
   onSubmit,
   onCancel,
 }: {
   initial?: HazardDto;
+  /** Starting values for a new hazard (raised from an anomaly); the person checks and completes them. */
+  prefill?: Partial<HazardFormValues>;
   submitLabel: string;
   pendingLabel: string;
   /** Resolves on success; a rejection's ApiError is placed at the fields it names. */
   onSubmit: (input: HazardCreateInput) => Promise<unknown>;
   onCancel?: () => void;
 }) {
-  const form = useForm<HazardFormValues>({ resolver: zodResolver(hazardFormSchema), defaultValues: hazardToForm(initial) });
+  const form = useForm<HazardFormValues>({ resolver: zodResolver(hazardFormSchema), defaultValues: { ...hazardToForm(initial), ...prefill } });
   const { register, control, handleSubmit, watch, setError, setValue, getValues, formState } = form;
   const [formError, setFormError] = useState<string | null>(null);
   const [matrixId, iS, iL, rS, rL] = watch(['matrixId', 'initialSeverity', 'initialLikelihood', 'residualSeverity', 'residualLikelihood']);
@@ -156,10 +159,10 @@ export function HazardForm({
   const chose = useRef(false);
   useEffect(() => {
     // Start a new hazard on the team's default matrix once the list arrives, unless one was already chosen.
-    if (!creating || chose.current || !matrices.data) return;
+    if (!creating || chose.current || !matrices.data || prefill?.matrixId) return;
     const preferred = matrices.data.find((m) => m.isDefault && !m.retired);
     if (preferred && preferred.id !== getValues('matrixId')) setValue('matrixId', preferred.id);
-  }, [creating, matrices.data, getValues, setValue]);
+  }, [creating, matrices.data, getValues, setValue, prefill?.matrixId]);
   const matrixField = register('matrixId', {
     onChange: () => {
       chose.current = true;

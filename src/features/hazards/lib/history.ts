@@ -25,6 +25,7 @@ const FIELD_WORDS: Record<string, string> = {
   status: 'Status',
   acceptance: 'Acceptance signed',
   acceptances: 'Acceptances cleared',
+  anomaly: 'Anomaly linked',
 };
 
 const MITIGATION_FIELD_WORDS: Record<string, string> = {

@@ -15,11 +15,13 @@ import { applyServerError } from '../../../lib/forms';
 import { useSignedInMe } from '../../../lib/session';
 import { useDiscardDraft } from '../api/discardDraft';
 import { useProcedure } from '../api/getProcedure';
+import { useProcedureAnomalies } from '../api/listProcedureAnomalies';
 import { useStations } from '../api/listStations';
 import { useOpenDraft } from '../api/openDraft';
 import { procedureUpdateInputSchema, useUpdateProcedure, type ProcedureUpdateInput } from '../api/updateProcedure';
 import { canEditStations, canWriteProcedures, idParam, SIGNOFF_LABELS } from '../lib/format';
 import { ProceduresNav } from './ProceduresNav';
+import { RevisionAnomalies } from './RevisionAnomalies';
 import { RevisionBadge } from './RevisionBadge';
 
 export function ProcedureMissing({ message = 'There is no procedure at this address.' }: { message?: string }) {
@@ -208,6 +210,7 @@ function RevisionsPanel({ procedure: p, canWrite }: { procedure: ProcedureDto; c
   const draft = p.revisions.find((r) => r.status === 'draft');
   const latestReleased = p.latestReleased?.number ?? null;
   const newest = [...p.revisions].reverse();
+  const anomalies = useProcedureAnomalies(p.id);
 
   return (
     <div className="flex flex-col gap-4">
@@ -222,6 +225,7 @@ function RevisionsPanel({ procedure: p, canWrite }: { procedure: ProcedureDto; c
                 <span className="text-sm text-ink-muted">Replaced by revision {latestReleased}</span>
               ) : null}
             </div>
+            <RevisionAnomalies anomalies={anomalies.data ?? []} procedureId={p.id} revisionNumber={r.number} />
             <div className="mt-2 grid gap-2 sm:grid-cols-[max-content_minmax(0,1fr)] sm:gap-x-4">
               <span className="font-bold">Sign-offs</span>
               <SignoffSummary revision={r} />
