@@ -18,6 +18,7 @@ import { Procedure } from './procedure.model';
 import { PropellantCautionHistory } from './propellant-caution-history.model';
 import { PropellantCautionOverride } from './propellant-caution-override.model';
 import { RiskMatrix } from './risk-matrix.model';
+import { SensorDataset } from './sensor-dataset.model';
 import { Session } from './session.model';
 import { Station } from './station.model';
 import { Team } from './team.model';
@@ -49,6 +50,7 @@ const MODELS = {
   CrewAssignment,
   Count,
   CountEvent,
+  SensorDataset,
 };
 
 /** Every model and association, in one place. */
@@ -109,6 +111,10 @@ export function initModels(sequelize: Sequelize) {
   Count.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
   Count.hasMany(CountEvent, { as: 'events', foreignKey: 'countId' });
   CountEvent.belongsTo(Count, { foreignKey: 'countId' });
+  Count.hasMany(SensorDataset, { as: 'sensorDatasets', foreignKey: 'countId' });
+  SensorDataset.belongsTo(Count, { foreignKey: 'countId' });
+  SensorDataset.belongsTo(Upload, { as: 'upload', foreignKey: 'uploadId' });
+  SensorDataset.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
 
   return MODELS;
 }
@@ -133,6 +139,7 @@ export {
   PropellantCautionHistory,
   PropellantCautionOverride,
   RiskMatrix,
+  SensorDataset,
   Session,
   Station,
   Team,
