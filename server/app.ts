@@ -35,6 +35,7 @@ import { procedureRoutes } from './routes/procedures.routes';
 import { profileRoutes } from './routes/profile.routes';
 import { propellantRoutes } from './routes/propellants.routes';
 import { riskMatrixRoutes } from './routes/risk-matrices.routes';
+import { sensorRoutes } from './routes/sensors.routes';
 import { setupRoutes } from './routes/setup.routes';
 import { uploadRoutes } from './routes/uploads.routes';
 import { stationRoutes } from './routes/stations.routes';
@@ -149,6 +150,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...stationRoutes(),
     ...crewPlanRoutes(),
     ...countRoutes({ counts }),
+    ...sensorRoutes({ counts, uploads }),
   ];
 
   const api = express.Router();
