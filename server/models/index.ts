@@ -111,6 +111,7 @@ export function initModels(sequelize: Sequelize) {
   Count.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
   Count.hasMany(CountEvent, { as: 'events', foreignKey: 'countId' });
   CountEvent.belongsTo(Count, { foreignKey: 'countId' });
+  Team.hasMany(SensorDataset, { foreignKey: 'teamId' });
   Count.hasMany(SensorDataset, { as: 'sensorDatasets', foreignKey: 'countId' });
   SensorDataset.belongsTo(Count, { foreignKey: 'countId' });
   SensorDataset.belongsTo(Upload, { as: 'upload', foreignKey: 'uploadId' });
