@@ -69,13 +69,13 @@ export function sensorRoutes({ counts, uploads }: { counts: CountService; upload
       params: idParamSchema,
       handler: async ({ params, user }): Promise<SensorListDto> => {
         const teamId = user!.teamId;
-        await findCount(teamId, params.id);
+        const count = await findCount(teamId, params.id);
         const [rows, events] = await Promise.all([
           SensorDataset.findAll({ where: { countId: params.id, teamId }, include, attributes: LIGHT, order: [['id', 'ASC']] }),
           counts.eventsSince(teamId, params.id, 0),
         ]);
         const report = countReport(events as unknown as Parameters<typeof countReport>[0]);
-        return { datasets: rows.map(datasetDto), timeline: sensorTimeline(report) };
+        return { countId: count.id, countName: count.name, datasets: rows.map(datasetDto), timeline: sensorTimeline(report) };
       },
     }),
     route({

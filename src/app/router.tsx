@@ -37,6 +37,7 @@ import { RootError, RouteError } from './RouteError';
 const CountsPage = lazy(() => import('../features/counts/components/CountsPage').then((m) => ({ default: m.CountsPage })));
 const CountPage = lazy(() => import('../features/counts/components/CountPage').then((m) => ({ default: m.CountPage })));
 const CountReplayPage = lazy(() => import('../features/counts/components/CountReplayPage').then((m) => ({ default: m.CountReplayPage })));
+const SensorDataPage = lazy(() => import('../features/sensors/components/SensorDataPage').then((m) => ({ default: m.SensorDataPage })));
 const CountReportPage = lazy(() => import('../features/counts/components/CountReportPage').then((m) => ({ default: m.CountReportPage })));
 
 function Lazy({ children }: { children: ReactNode }) {
@@ -95,6 +96,7 @@ export const routes: RouteObject[] = [
               { path: 'counts/:id', element: <Lazy><CountPage /></Lazy> },
               { path: 'counts/:id/report', element: <Lazy><CountReportPage /></Lazy> },
               { path: 'counts/:id/replay', element: <Lazy><CountReplayPage /></Lazy> },
+              { path: 'counts/:id/data', element: <Lazy><SensorDataPage /></Lazy> },
               { path: 'records', element: <RecordsPage /> },
               { path: 'profile', element: <ProfilePage /> },
               {

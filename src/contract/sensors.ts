@@ -121,6 +121,8 @@ export interface SensorDatasetDto {
 }
 
 export interface SensorListDto {
+  countId: number;
+  countName: string;
   datasets: SensorDatasetDto[];
   /** The count's own timeline on the plot's axis: T-0, holds and redline readings, from its log. */
   timeline: SensorTimeline;

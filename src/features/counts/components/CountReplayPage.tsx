@@ -118,7 +118,16 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
   const pct = (ms: number) => Math.min(100, Math.max(0, ((ms - first) / span) * 100));
 
   return (
-    <Page title={`Replay: ${plan?.name ?? `count ${countId}`}`} kicker="Replay from the count log" actions={<Link to={`/counts/${countId}/report`}>Count report</Link>}>
+    <Page
+      title={`Replay: ${plan?.name ?? `count ${countId}`}`}
+      kicker="Replay from the count log"
+      actions={
+        <>
+          <Link to={`/counts/${countId}/report`}>Count report</Link>
+          <Link to={`/counts/${countId}/data`}>Sensor data</Link>
+        </>
+      }
+    >
       <div className="flex flex-col gap-4">
         <section aria-label="Instant" className="flex flex-col gap-2 rounded-md border-2 border-line bg-surface p-3">
           <p className="text-lg font-bold">
