@@ -106,8 +106,14 @@ function overlayPlugin(timeline: SensorTimeline, series: PlotSeries[]): uPlot.Pl
             ctx.closePath();
             ctx.fill();
           }
-          // T-0: a solid line, labelled.
+          // T-0: a solid line on the canvas and a text label in the page (kept where the line is).
           const x0 = u.valToPos(0, 'x', true);
+          const label = u.over.querySelector<HTMLElement>('.hf-t0-label');
+          if (label) {
+            const css = u.valToPos(0, 'x');
+            label.hidden = !(css >= 0 && css <= u.over.clientWidth);
+            label.style.left = `${css + 4}px`;
+          }
           if (inX(x0)) {
             ctx.setLineDash([]);
             ctx.strokeStyle = c.ink;
@@ -117,7 +123,6 @@ function overlayPlugin(timeline: SensorTimeline, series: PlotSeries[]): uPlot.Pl
             ctx.moveTo(x0, bbox.top);
             ctx.lineTo(x0, bbox.top + bbox.height);
             ctx.stroke();
-            ctx.fillText('T-0', x0 + 4 * px, bbox.top + 14 * px);
           }
           ctx.restore();
         },
@@ -200,6 +205,11 @@ export function SensorPlot({ t, series, timeline, label }: { t: number[]; series
     void import('uplot').then(({ default: UPlot }) => {
       if (gone) return;
       const made = new UPlot(opts, [t, ...series.map((s) => s.values)] as uPlot.AlignedData, el);
+      const t0 = document.createElement('span');
+      t0.className = 'hf-t0-label';
+      t0.textContent = 'T-0';
+      made.over.appendChild(t0);
+      made.redraw(false, false);
       u = made;
       plot.current = made;
       resize = new ResizeObserver(() => {

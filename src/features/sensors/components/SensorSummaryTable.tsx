@@ -16,7 +16,7 @@ export function SensorSummaryTable({ dataset, summaries }: { dataset: SensorData
     <div className="min-w-0">
       {/* On a phone each row stacks, its cells labelled, so the page never scrolls sideways. */}
       <table className="w-full border-collapse text-left max-sm:block">
-        <caption className="mb-2 text-left text-xl font-bold">Each channel in numbers</caption>
+        <caption className="mb-2 text-left text-xl font-bold max-sm:block">Each channel in numbers</caption>
         <thead className="max-sm:sr-only">
           <tr className="border-b-2 border-line">
             <th scope="col" className="p-2">Channel</th>
