@@ -10,7 +10,7 @@ import {
   type SensorListDto,
 } from '../../src/contract/sensors';
 import { countReport } from '../../src/domain/count/report';
-import { decimateMinMax } from '../../src/domain/sensors/decimate';
+import { decimateMinMax, rowsAround, sliceColumns } from '../../src/domain/sensors/decimate';
 import { summarizeChannel } from '../../src/domain/sensors/summary';
 import { sensorTimeline } from '../../src/domain/sensors/timeline';
 import type { CountService } from '../counts/service';
@@ -121,12 +121,16 @@ export function sensorRoutes({ counts, uploads }: { counts: CountService; upload
         const d = await findDataset(user!.teamId, params.id, params.datasetId, true);
         const { t, channels } = unpackColumns(d.data, d.rowCount, d.channels.length);
         const summaries = channels.map((v, i) => summarizeChannel(i, t, v, { low: d.channels[i]!.low, high: d.channels[i]!.high }));
-        const out = query.maxPoints === undefined ? { t: Array.from(t), values: channels.map((v) => Array.from(v)), decimated: false } : decimateMinMax({ t, values: channels }, query.maxPoints);
+        const windowed = query.from !== undefined || query.to !== undefined;
+        const window = { from: query.from ?? -Infinity, to: query.to ?? Infinity };
+        const rows = windowed ? sliceColumns({ t, values: channels }, rowsAround(t, window.from, window.to)) : { t, values: channels };
+        const out = decimateMinMax(rows, query.maxPoints ?? Infinity);
         return {
           datasetId: d.id,
           rows: d.rowCount,
           points: out.t.length,
           decimated: out.decimated,
+          window: windowed ? { from: Math.max(window.from, d.tStart), to: Math.min(window.to, d.tEnd) } : null,
           t: out.t,
           // JSON has no NaN: an empty cell goes out as null, which the plot draws as a gap.
           values: out.values.map((v) => v.map((x) => (Number.isNaN(x) ? null : x))),

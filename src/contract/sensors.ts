@@ -81,14 +81,22 @@ export const sensorParamsSchema = z.strictObject({
   datasetId: z.string().regex(/^[1-9]\d{0,8}$/, 'Not a valid id').transform(Number),
 });
 
+const secondsParam = z
+  .string()
+  .regex(/^-?\d{1,7}(\.\d{1,6})?$/, 'Give seconds from T-0, like -12.5')
+  .transform(Number);
+
 export const sensorDataQuerySchema = z.strictObject({
+  /** Only the rows from `from` to `to` seconds (and one either side), for a zoomed view. */
+  from: secondsParam.optional(),
+  to: secondsParam.optional(),
   maxPoints: z
     .string()
     .regex(/^\d{1,9}$/, 'Give a whole number of points')
     .transform(Number)
     .pipe(z.number().min(SENSOR_MIN_POINTS, `At least ${SENSOR_MIN_POINTS} points`).max(SENSOR_MAX_POINTS, `At most ${SENSOR_MAX_POINTS} points`))
     .optional(),
-});
+}).refine((q) => q.from === undefined || q.to === undefined || q.from < q.to, { path: ['to'], message: 'The end must be after the start' });
 
 // ---------------------------------------------------------------- answers
 
@@ -134,6 +142,8 @@ export interface SensorDataDto {
   rows: number;
   points: number;
   decimated: boolean;
+  /** The view asked for with from/to, or null for the whole dataset. */
+  window: { from: number; to: number } | null;
   /** Seconds from T-0. */
   t: number[];
   /** One array per channel, aligned with t; null where a cell was empty. */

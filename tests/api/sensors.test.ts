@@ -211,6 +211,17 @@ describe('reading the data', () => {
     // Bucket 0 of 500 covers rows 0..199 (times 0..1.99): values i % 7 give min 0 and max 6, row 0 before row 6.
     expect(dec.t.slice(0, 2)).toEqual([0, 1.99]);
     expect(dec.values[0]!.slice(0, 2)).toEqual([0, 6]);
+    // A zoomed view: 100.005..100.1 s holds rows 10001..10010 (t = i / 100), plus rows 10000 and 10011 -> 12 rows,
+    // under maxPoints so not decimated; the summaries still cover every row.
+    const view = (await auditor.get(`/api/counts/${waiting}/sensors/${big.id}/data?maxPoints=1000&from=100.005&to=100.1`).expect(200)).body as SensorDataDto;
+    expect(view).toMatchObject({ points: 12, decimated: false, window: { from: 100.005, to: 100.1 } });
+    expect(view.t[0]).toBe(100);
+    expect(view.t.at(-1)).toBe(100.11);
+    expect(view.values[0]!.slice(0, 3)).toEqual([10000 % 7, 10001 % 7, 10002 % 7]);
+    expect(view.summaries[0]).toMatchObject({ max: 99, min: -99 });
+    const bad = await auditor.get(`/api/counts/${waiting}/sensors/${big.id}/data?from=5&to=1`).expect(400);
+    expect(bad.body.details[0]).toMatchObject({ path: 'to', message: 'The end must be after the start' });
+    await auditor.get(`/api/counts/${waiting}/sensors/${big.id}/data?from=soon`).expect(400);
   });
 });
 

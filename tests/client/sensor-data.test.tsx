@@ -42,6 +42,7 @@ const data: SensorDataDto = {
   rows: 5,
   points: 5,
   decimated: false,
+  window: null,
   t: [-1, 0, 0.5, 1, 1.5],
   values: [
     [0, 2, 16, 15, null],

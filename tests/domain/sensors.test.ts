@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { bucketBounds, decimateMinMax } from '../../src/domain/sensors/decimate';
+import { bucketBounds, decimateMinMax, mergeDetail, rowsAround, sliceColumns } from '../../src/domain/sensors/decimate';
 import { MAX_EXCURSIONS, summarizeChannel } from '../../src/domain/sensors/summary';
 import { sensorTimeline } from '../../src/domain/sensors/timeline';
 import type { CountReport } from '../../src/domain/count/report';
@@ -41,6 +41,34 @@ describe('decimateMinMax', () => {
     expect(gap.values[0]!.slice(0, 2).every(Number.isNaN)).toBe(true);
     expect(gap.values[0]!.slice(2)).toEqual([1, 3]);
     expect(decimateMinMax({ t: [0, 1], values: [[1, 2]] }, 10)).toEqual({ t: [0, 1], values: [[1, 2]], decimated: false });
+  });
+});
+
+describe('rowsAround', () => {
+  // t = 0, 1, 2, 3, 4, 5 (row i at i seconds).
+  const t = [0, 1, 2, 3, 4, 5];
+  it('the rows inside the view and one on each side', () => {
+    // View 1.5..3.5 holds rows 2 and 3; with row 1 before and row 4 after -> rows [1, 5).
+    expect(rowsAround(t, 1.5, 3.5)).toEqual([1, 5]);
+    // View 2..3 exactly on rows: rows 2, 3 inside, plus 1 and 4 -> [1, 5).
+    expect(rowsAround(t, 2, 3)).toEqual([1, 5]);
+    // Past the start or the end is clipped to the data: -10..0.5 -> row 0 inside, row 1 after -> [0, 2).
+    expect(rowsAround(t, -10, 0.5)).toEqual([0, 2]);
+    expect(rowsAround(t, 4.5, 99)).toEqual([4, 6]);
+    // Entirely before the data: only the first row, as the one "after" -> [0, 1).
+    expect(rowsAround(t, -9, -8)).toEqual([0, 1]);
+    expect(rowsAround(t, 3, 2)).toEqual([0, 0]);
+    expect(sliceColumns({ t, values: [[10, 11, 12, 13, 14, 15]] }, [1, 5])).toEqual({ t: [1, 2, 3, 4], values: [[11, 12, 13, 14]] });
+  });
+});
+
+describe('mergeDetail', () => {
+  it('keeps the overview outside the zoomed stretch and the detail inside it', () => {
+    // Overview at 0, 2, 4, 6, 8; detail for 3..5 is the rows 2, 3, 4, 5, 6 (one either side).
+    // Overview rows before min(3, 2) = 2: t 0. After max(5, 6) = 6: t 8. -> 0 | 2 3 4 5 6 | 8.
+    const overview = { t: [0, 2, 4, 6, 8], values: [[0, 20, 40, 60, 80]] };
+    const detail = { t: [2, 3, 4, 5, 6], values: [[20, 30, null, 50, 60]] };
+    expect(mergeDetail(overview, detail, 3, 5)).toEqual({ t: [0, 2, 3, 4, 5, 6, 8], values: [[0, 20, 30, null, 50, 60, 80]] });
   });
 });
 

@@ -57,3 +57,65 @@ export function decimateMinMax(columns: Columns, maxPoints: number): DecimatedCo
   }
   return { t, values, decimated: true };
 }
+
+/**
+ * The rows to send for a view from `from` to `to` seconds: every row inside it plus one on each side, so the lines
+ * run to the edges of the view. Times must increase. Returns [start, end), empty when nothing is near the view.
+ */
+export function rowsAround(t: ArrayLike<number>, from: number, to: number): [number, number] {
+  const firstAtOrAfter = (x: number) => {
+    let lo = 0;
+    let hi = t.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (t[mid]! < x) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
+  const firstAfter = (x: number) => {
+    let lo = 0;
+    let hi = t.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (t[mid]! <= x) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
+  if (to < from) return [0, 0];
+  const start = Math.max(0, firstAtOrAfter(from) - 1);
+  const end = Math.min(t.length, firstAfter(to) + 1);
+  return start < end ? [start, end] : [0, 0];
+}
+
+/** Columns restricted to rows [start, end). */
+export function sliceColumns(columns: Columns, [start, end]: [number, number]): Columns {
+  const cut = (a: ArrayLike<number>) => Array.prototype.slice.call(a, start, end) as number[];
+  return { t: cut(columns.t), values: columns.values.map(cut) };
+}
+
+export interface PlotColumns {
+  t: number[];
+  values: (number | null)[][];
+}
+
+/**
+ * The overview with a stretch replaced by its detail: overview rows before `from`, every detail row, overview rows
+ * after `to`. Times stay increasing as long as the detail lies within [from, to] plus one row either side.
+ */
+export function mergeDetail(overview: PlotColumns, detail: PlotColumns, from: number, to: number): PlotColumns {
+  const first = detail.t[0] ?? from;
+  const last = detail.t[detail.t.length - 1] ?? to;
+  const before: number[] = [];
+  const after: number[] = [];
+  overview.t.forEach((x, i) => {
+    if (x < Math.min(from, first)) before.push(i);
+    else if (x > Math.max(to, last)) after.push(i);
+  });
+  const pick = (column: (number | null)[], rows: number[]) => rows.map((i) => column[i]!);
+  return {
+    t: [...pick(overview.t, before), ...detail.t, ...pick(overview.t, after)] as number[],
+    values: overview.values.map((column, c) => [...pick(column, before), ...detail.values[c]!, ...pick(column, after)]),
+  };
+}

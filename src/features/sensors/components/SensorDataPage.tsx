@@ -2,12 +2,14 @@ import { useEffect, useMemo, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { SENSOR_WRITERS, type SensorDataDto, type SensorDatasetDto, type SensorListDto } from '../../../contract/sensors';
 import { hasAnyRole } from '../../../domain/people/roles';
+import { mergeDetail, type PlotColumns } from '../../../domain/sensors/decimate';
 import { Notice } from '../../../components/ui/Notice';
 import { Loading, Page } from '../../../components/ui/Page';
 import { SelectField } from '../../../components/ui/SelectField';
 import { errorMessage } from '../../../lib/api';
 import { useMe } from '../../../lib/session';
-import { useSensorData } from '../api/getSensorData';
+import { useSensorData, useSensorWindow } from '../api/getSensorData';
+import type { SensorWindow } from '../api/keys';
 import { useSensorList } from '../api/listSensorData';
 import { formatT } from './format';
 import { LimitsEditor, RemoveDataset, UploadSensorForm } from './SensorForms';
@@ -144,35 +146,65 @@ function DatasetView({ countId, dataset, timeline, canWrite }: { countId: number
           <p>{errorMessage(data.error)}</p>
         </Notice>
       ) : null}
-      {data.data ? <PlotAndTable dataset={dataset} data={data.data} shown={shown} timeline={timeline} /> : null}
+      {data.data ? <PlotAndTable countId={countId} dataset={dataset} data={data.data} shown={shown} timeline={timeline} /> : null}
       {canWrite ? <LimitsEditor countId={countId} dataset={dataset} /> : null}
       {canWrite ? <RemoveDataset countId={countId} dataset={dataset} /> : null}
     </section>
   );
 }
 
-function PlotAndTable({ dataset, data, shown, timeline }: { dataset: SensorDatasetDto; data: SensorDataDto; shown: number[]; timeline: SensorListDto['timeline'] }) {
+function PlotAndTable({
+  countId,
+  dataset,
+  data,
+  shown,
+  timeline,
+}: {
+  countId: number;
+  dataset: SensorDatasetDto;
+  data: SensorDataDto;
+  shown: number[];
+  timeline: SensorListDto['timeline'];
+}) {
+  // A zoomed view of thinned data asks for that stretch in detail, a moment after the zoom or pan settles.
+  const [view, setView] = useState<[number, number] | null>(null);
+  const [stretch, setStretch] = useState<SensorWindow | null>(null);
+  useEffect(() => {
+    if (!data.decimated || view === null) return setStretch(null);
+    const timer = setTimeout(() => setStretch({ from: view[0].toFixed(3), to: view[1].toFixed(3) }), 250);
+    return () => clearTimeout(timer);
+  }, [view, data.decimated]);
+  const detail = useSensorWindow(countId, dataset.id, PLOT_POINTS, stretch);
+  const columns = useMemo<PlotColumns>(() => {
+    const d = stretch ? detail.data : undefined;
+    if (!d?.window) return { t: data.t, values: data.values };
+    return mergeDetail({ t: data.t, values: data.values }, { t: d.t, values: d.values }, d.window.from, d.window.to);
+  }, [data, detail.data, stretch]);
+  const full = useMemo<[number, number]>(() => [dataset.tStart, dataset.tEnd], [dataset.tStart, dataset.tEnd]);
+
   const series = useMemo<PlotSeries[]>(
     () =>
       shown.map((i) => {
         const c = dataset.channels[i]!;
-        return { label: c.name, unit: c.unit, values: data.values[i]!, low: c.low, high: c.high, style: i };
+        return { label: c.name, unit: c.unit, values: columns.values[i]!, low: c.low, high: c.high, style: i };
       }),
-    [shown, dataset.channels, data.values],
+    [shown, dataset.channels, columns],
   );
   const names = series.map((s) => s.label).join(', ') || 'no channel';
   return (
     <>
       {data.decimated ? (
         <p className="text-sm text-ink-muted">
-          The plot shows {data.points.toLocaleString('en-GB')} of {data.rows.toLocaleString('en-GB')} rows: each stretch keeps its lowest and highest reading, so no peak is lost. The
-          table is worked out from every row.
+          The plot shows {data.points.toLocaleString('en-GB')} of {data.rows.toLocaleString('en-GB')} rows: each stretch keeps its lowest and highest reading, so no peak is lost. Zoom
+          in for more detail. The table is worked out from every row.
         </p>
       ) : null}
       <SensorPlot
-        t={data.t}
+        t={columns.t}
         series={series}
         timeline={timeline}
+        full={full}
+        onView={setView}
         label={`Plot of ${names} against seconds from T-0, ${formatT(dataset.tStart)} to ${formatT(dataset.tEnd)}. The table below gives each channel’s minimum, maximum and limit crossings.`}
       />
       <SensorSummaryTable dataset={dataset} summaries={data.summaries} />

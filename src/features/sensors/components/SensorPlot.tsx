@@ -135,12 +135,32 @@ function overlayPlugin(timeline: SensorTimeline, series: PlotSeries[]): uPlot.Pl
  * The channels against seconds from T-0, drawn with uPlot on a canvas: drag across the plot to zoom in, the buttons
  * to pan, zoom and reset. The canvas is one image to assistive technology; the table beside it carries the numbers.
  */
-export function SensorPlot({ t, series, timeline, label }: { t: number[]; series: PlotSeries[]; timeline: SensorTimeline; label: string }) {
+export function SensorPlot({
+  t,
+  series,
+  timeline,
+  label,
+  full,
+  onView,
+}: {
+  t: number[];
+  series: PlotSeries[];
+  timeline: SensorTimeline;
+  label: string;
+  /** The dataset's whole time range: what Reset view returns to. */
+  full: [number, number];
+  /** Called with the shown stretch after a zoom or pan, and null when the whole range is shown again. */
+  onView?: (view: [number, number] | null) => void;
+}) {
   const holder = useRef<HTMLDivElement>(null);
   const plot = useRef<uPlot | null>(null);
   const [theme, setTheme] = useState(() => (typeof document === 'undefined' ? '' : (document.documentElement.dataset.theme ?? '')));
   const [drawable] = useState(canDraw);
-  const full: [number, number] = [t[0] ?? 0, t[t.length - 1] ?? 1];
+  // The data and the callbacks change without the plot being made again: new points go in with setData.
+  const latest = useRef({ t, series, full, onView });
+  latest.current = { t, series, full, onView };
+  const shown = useRef<[number, number] | null>(null);
+  const shape = JSON.stringify(series.map((s) => [s.label, s.unit, s.low, s.high, s.style]));
 
   // Colours come from the theme's CSS variables, so the plot is drawn again when the theme changes.
   useEffect(() => {
@@ -151,6 +171,7 @@ export function SensorPlot({ t, series, timeline, label }: { t: number[]; series
 
   useEffect(() => {
     const el = holder.current;
+    const { t, series } = latest.current;
     if (!drawable || !el || t.length < 2) return;
     const width = Math.max(200, el.clientWidth);
     const units = [...new Set(series.map((s) => s.unit))];
@@ -198,18 +219,34 @@ export function SensorPlot({ t, series, timeline, label }: { t: number[]; series
         }),
       ],
       plugins: [overlayPlugin(timeline, series)],
+      hooks: {
+        setScale: [
+          (u, key) => {
+            if (key !== 'x') return;
+            const { full, onView } = latest.current;
+            const min = u.scales.x!.min ?? full[0];
+            const max = u.scales.x!.max ?? full[1];
+            const whole = min <= full[0] + 1e-9 && max >= full[1] - 1e-9;
+            shown.current = whole ? null : [min, max];
+            onView?.(shown.current);
+          },
+        ],
+      },
     };
     let u: uPlot | null = null;
     let resize: ResizeObserver | null = null;
     let gone = false;
     void import('uplot').then(({ default: UPlot }) => {
       if (gone) return;
-      const made = new UPlot(opts, [t, ...series.map((s) => s.values)] as uPlot.AlignedData, el);
+      const now = latest.current;
+      const made = new UPlot(opts, [now.t, ...now.series.map((s) => s.values)] as uPlot.AlignedData, el);
       const t0 = document.createElement('span');
       t0.className = 'hf-t0-label';
       t0.textContent = 'T-0';
       made.over.appendChild(t0);
-      made.redraw(false, false);
+      // A plot made again (another channel, the other theme) keeps the stretch that was shown.
+      if (shown.current) made.setScale('x', { min: shown.current[0], max: shown.current[1] });
+      else made.redraw(false, false);
       u = made;
       plot.current = made;
       resize = new ResizeObserver(() => {
@@ -224,7 +261,11 @@ export function SensorPlot({ t, series, timeline, label }: { t: number[]; series
       u?.destroy();
       plot.current = null;
     };
-  }, [drawable, t, series, timeline, theme]);
+  }, [drawable, shape, timeline, theme]);
+
+  useEffect(() => {
+    plot.current?.setData([t, ...series.map((s) => s.values)] as uPlot.AlignedData, false);
+  }, [t, series]);
 
   function setX(min: number, max: number) {
     const u = plot.current;
