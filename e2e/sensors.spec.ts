@@ -60,6 +60,7 @@ test.describe('sensor data', () => {
     await page.mouse.move(box.x + box.width * 0.7, box.y + box.height / 2, { steps: 5 });
     await page.mouse.up();
     await detail;
+    await page.screenshot({ path: 'e2e/screenshots/sensor-data-desk-daylight-zoomed.png' });
     await page.getByRole('button', { name: 'Reset view' }).click();
 
     await expectAccessible(page, 'sensor data, desk, daylight');
