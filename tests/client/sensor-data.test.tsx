@@ -114,6 +114,26 @@ describe('the sensor data page', () => {
     const post = fetch.mock.calls.find(([, init]) => init?.method === 'POST');
     expect(post![1]!.body).toBeInstanceOf(FormData);
     expect(((post![1]!.body as FormData).get('file') as File).name).toBe('bad.csv');
+    expect((post![1]!.body as FormData).get('limits')).toBeNull();
+  });
+
+  it('offers limit fields for the channels in the chosen file’s header and sends the filled ones as JSON by name', async () => {
+    const user = userEvent.setup();
+    const fetch = open(people.operator, {
+      'POST /api/counts/5/sensors': json(201, { ...list.datasets[0], id: 8, file: { ...list.datasets[0]!.file, name: 'run.csv' } }),
+    });
+    renderApp('/counts/5/data');
+    await screen.findByRole('heading', { name: 'Add test data' });
+    const header = '# recorder 3\nT (s),chamber_pressure (bar),"lox_tank_pressure [bar]"\n0,1,2\n';
+    await user.upload(screen.getByLabelText('CSV file'), new File([header], 'run.csv', { type: 'text/csv' }));
+    const pc = await screen.findByRole('group', { name: 'Limits for chamber_pressure (optional)' });
+    expect(screen.getByRole('group', { name: 'Limits for lox_tank_pressure (optional)' })).toBeInTheDocument();
+    expect(screen.queryByRole('group', { name: /Limits for T/ })).not.toBeInTheDocument();
+    await user.type(within(pc).getByLabelText('High limit'), '18');
+    await user.click(screen.getByRole('button', { name: 'Upload test data' }));
+    expect(await screen.findByText('run.csv: 5 rows, 2 channels.')).toBeInTheDocument();
+    const post = fetch.mock.calls.find(([, init]) => init?.method === 'POST');
+    expect(JSON.parse((post![1]!.body as FormData).get('limits') as string)).toEqual({ chamber_pressure: { high: 18 } });
   });
 
   it('an auditor reads but is offered no upload, limits or removal', async () => {

@@ -22,15 +22,62 @@ function ErrorNotice({ error }: { error: unknown }) {
   );
 }
 
-/** Adds a CSV of readings to the count. The server reads every row before it stores anything. */
+const TIME_HEADER = /^(t|time|t_s|time_s|t_sec|time_sec|timestamp|datetime|date_time|utc|time_utc|elapsed)$/i;
+
+/**
+ * The channel names in a CSV's header, read in the browser only to offer limit fields before the upload; the server
+ * reads the file again and is the one that decides.
+ */
+export async function channelNamesOf(file: File): Promise<string[]> {
+  const head = await file.slice(0, 64 * 1024).text();
+  const line = head
+    .replace(/^\uFEFF/, '')
+    .split(/\r?\n/)
+    .find((l) => l.trim() !== '' && !l.startsWith('#'));
+  if (!line) return [];
+  return line
+    .split(',')
+    .map((cell) => cell.trim().replace(/^"|"$/g, '').replace(/\s*[([][^)\]]*[)\]]\s*$/, '').trim())
+    .filter((name) => name !== '' && !TIME_HEADER.test(name.replace(/[\s-]+/g, '_')))
+    .slice(0, 16);
+}
+
+type LimitsDraft = Record<string, { low: string; high: string }>;
+
+/** Adds a CSV of readings to the count, with optional limits per channel. The server reads every row before it stores anything. */
 export function UploadSensorForm({ countId, hasT0, onUploaded }: { countId: number; hasT0: boolean; onUploaded: (d: SensorDatasetDto) => void }) {
   const upload = useUploadSensorData();
   const [file, setFile] = useState<File | null>(null);
   const [missing, setMissing] = useState(false);
+  const [channels, setChannels] = useState<string[]>([]);
+  const [limits, setLimits] = useState<LimitsDraft>({});
+  const [problem, setProblem] = useState<string | null>(null);
+
+  async function choose(next: File | null) {
+    setFile(next);
+    setMissing(false);
+    setLimits({});
+    setChannels(next ? await channelNamesOf(next).catch(() => []) : []);
+  }
   function submit(e: FormEvent) {
     e.preventDefault();
     if (!file) return setMissing(true);
-    upload.mutate({ countId, file }, { onSuccess: (d) => (onUploaded(d), setFile(null), (e.target as HTMLFormElement).reset()) });
+    const out: Record<string, { low?: number; high?: number }> = {};
+    for (const name of channels) {
+      const d = limits[name];
+      if (!d) continue;
+      const entry: { low?: number; high?: number } = {};
+      for (const side of ['low', 'high'] as const) {
+        if (d[side].trim() === '') continue;
+        const value = Number(d[side]);
+        if (!Number.isFinite(value)) return setProblem(`Enter the ${side} limit of ${name} as a number, or leave it empty.`);
+        entry[side] = value;
+      }
+      if (entry.low !== undefined || entry.high !== undefined) out[name] = entry;
+    }
+    setProblem(null);
+    const form = e.target as HTMLFormElement;
+    upload.mutate({ countId, file, limits: out }, { onSuccess: (d) => (onUploaded(d), form.reset(), void choose(null)) });
   }
   return (
     <section aria-labelledby="sd-upload" className="flex flex-col gap-3">
@@ -40,7 +87,7 @@ export function UploadSensorForm({ countId, hasT0, onUploaded }: { countId: numb
       <p className="max-w-prose">
         A CSV file with a header row: a time column and up to 16 channels of numbers. Name the time column <code>t_s</code> for seconds from T-0
         {hasT0 ? <>, or <code>timestamp</code> for date-times with a zone (they are converted with this count’s T-0)</> : <> (this count never reached T-0, so wall-clock times cannot be used)</>}. A unit may follow a channel’s name in brackets, like{' '}
-        <code>chamber_pressure (bar)</code>. Limits can be set after the upload.
+        <code>chamber_pressure (bar)</code>. Limits, in each channel’s unit, can be set here or later.
       </p>
       <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
         <div className="flex flex-col gap-1">
@@ -53,7 +100,7 @@ export function UploadSensorForm({ countId, hasT0, onUploaded }: { countId: numb
             accept=".csv,text/csv"
             aria-invalid={missing ? true : undefined}
             aria-describedby={missing ? 'sd-file-error' : undefined}
-            onChange={(e) => (setFile(e.target.files?.[0] ?? null), setMissing(false))}
+            onChange={(e) => void choose(e.target.files?.[0] ?? null)}
             className="min-w-0 max-w-full"
           />
           {missing ? (
@@ -62,11 +109,32 @@ export function UploadSensorForm({ countId, hasT0, onUploaded }: { countId: numb
             </p>
           ) : null}
         </div>
+        {channels.map((name) => (
+          <fieldset key={name} className="flex min-w-0 flex-wrap items-end gap-3">
+            <legend className="mb-1 font-bold">Limits for {name} (optional)</legend>
+            {(['low', 'high'] as const).map((side) => (
+              <label key={side} className="flex flex-col gap-1">
+                {side === 'low' ? 'Low limit' : 'High limit'}
+                <input
+                  inputMode="decimal"
+                  className="min-h-12 w-32 rounded-md border-2 border-line bg-surface px-3 text-ink"
+                  value={limits[name]?.[side] ?? ''}
+                  onChange={(e) => setLimits((l) => ({ ...l, [name]: { ...(l[name] ?? { low: '', high: '' }), [side]: e.target.value } }))}
+                />
+              </label>
+            ))}
+          </fieldset>
+        ))}
         <div>
           <Button type="submit" variant="primary" pending={upload.isPending} pendingLabel="Reading the file…">
             Upload test data
           </Button>
         </div>
+        {problem ? (
+          <Notice tone="danger" title="Not sent">
+            <p>{problem}</p>
+          </Notice>
+        ) : null}
         {upload.isError ? <ErrorNotice error={upload.error} /> : null}
         {upload.isSuccess ? (
           <Notice tone="success" title="Added">
