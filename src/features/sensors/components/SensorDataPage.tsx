@@ -105,8 +105,8 @@ function TimelineWords({ timeline }: { timeline: SensorListDto['timeline'] }) {
 
 function DatasetView({ countId, dataset, timeline, canWrite }: { countId: number; dataset: SensorDatasetDto; timeline: SensorListDto['timeline']; canWrite: boolean }) {
   const data = useSensorData(countId, dataset.id, PLOT_POINTS);
+  // This view is keyed by the dataset, so the choice starts afresh for another dataset and survives a limits edit.
   const [shown, setShown] = useState<number[]>(() => dataset.channels.map((c) => c.index));
-  useEffect(() => setShown(dataset.channels.map((c) => c.index)), [dataset.id, dataset.channels]);
 
   return (
     <section aria-labelledby="sd-plot" className="flex min-w-0 flex-col gap-4">
