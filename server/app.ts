@@ -36,6 +36,7 @@ import { procedureRoutes } from './routes/procedures.routes';
 import { profileRoutes } from './routes/profile.routes';
 import { propellantRoutes } from './routes/propellants.routes';
 import { riskMatrixRoutes } from './routes/risk-matrices.routes';
+import { sensorRoutes } from './routes/sensors.routes';
 import { setupRoutes } from './routes/setup.routes';
 import { uploadRoutes } from './routes/uploads.routes';
 import { stationRoutes } from './routes/stations.routes';
@@ -154,6 +155,7 @@ export function createApp(deps: AppDeps): HoldfireApp {
     ...stationRoutes(),
     ...crewPlanRoutes(),
     ...countRoutes({ counts, notifier }),
+    ...sensorRoutes({ counts, uploads }),
     ...anomalyRoutes({ uploads, counts, notifier, appUrl: config.appUrl, log }),
   ];
 

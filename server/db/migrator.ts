@@ -7,6 +7,7 @@ import * as m0004 from './migrations/0004-risk-matrix-lifecycle';
 import * as m0005 from './migrations/0005-procedures';
 import * as m0006 from './migrations/0006-procedure-attachments';
 import * as m0007 from './migrations/0007-count-log';
+import * as m0008 from './migrations/0008-sensor-data';
 import * as m0009 from './migrations/0009-anomalies';
 import * as m0010 from './migrations/0010-notifications';
 
@@ -24,7 +25,7 @@ const MIGRATIONS = [
   { name: '0005-procedures', ...m0005 },
   { name: '0006-procedure-attachments', ...m0006 },
   { name: '0007-count-log', ...m0007 },
-  // 0008 belongs to the sensor data, merged next.
+  { name: '0008-sensor-data', ...m0008 },
   { name: '0009-anomalies', ...m0009 },
   { name: '0010-notifications', ...m0010 },
 ];

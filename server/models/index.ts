@@ -25,6 +25,7 @@ import { Procedure } from './procedure.model';
 import { PropellantCautionHistory } from './propellant-caution-history.model';
 import { PropellantCautionOverride } from './propellant-caution-override.model';
 import { RiskMatrix } from './risk-matrix.model';
+import { SensorDataset } from './sensor-dataset.model';
 import { Session } from './session.model';
 import { Station } from './station.model';
 import { Team } from './team.model';
@@ -63,6 +64,7 @@ const MODELS = {
   CorrectiveAction,
   AnomalyHistory,
   AnomalyRevision,
+  SensorDataset,
 };
 
 /** Every model and association, in one place. */
@@ -144,6 +146,12 @@ export function initModels(sequelize: Sequelize) {
   AnomalyRevision.belongsTo(ProcedureRevision, { as: 'revision', foreignKey: 'revisionId' });
   AnomalyRevision.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
 
+  Team.hasMany(SensorDataset, { foreignKey: 'teamId' });
+  Count.hasMany(SensorDataset, { as: 'sensorDatasets', foreignKey: 'countId' });
+  SensorDataset.belongsTo(Count, { foreignKey: 'countId' });
+  SensorDataset.belongsTo(Upload, { as: 'upload', foreignKey: 'uploadId' });
+  SensorDataset.belongsTo(User, { as: 'createdBy', foreignKey: 'createdById' });
+
   return MODELS;
 }
 
@@ -174,6 +182,7 @@ export {
   PropellantCautionHistory,
   PropellantCautionOverride,
   RiskMatrix,
+  SensorDataset,
   Session,
   Station,
   Team,

@@ -40,6 +40,7 @@ import { RootError, RouteError } from './RouteError';
 const CountsPage = lazy(() => import('../features/counts/components/CountsPage').then((m) => ({ default: m.CountsPage })));
 const CountPage = lazy(() => import('../features/counts/components/CountPage').then((m) => ({ default: m.CountPage })));
 const CountReplayPage = lazy(() => import('../features/counts/components/CountReplayPage').then((m) => ({ default: m.CountReplayPage })));
+const SensorDataPage = lazy(() => import('../features/sensors/components/SensorDataPage').then((m) => ({ default: m.SensorDataPage })));
 const CountReportPage = lazy(() => import('../features/counts/components/CountReportPage').then((m) => ({ default: m.CountReportPage })));
 
 function Lazy({ children }: { children: ReactNode }) {
@@ -101,6 +102,7 @@ export const routes: RouteObject[] = [
               { path: 'anomalies', element: <AnomaliesPage /> },
               { path: 'anomalies/new', element: <NewAnomalyPage /> },
               { path: 'anomalies/:id', element: <AnomalyDetailPage /> },
+              { path: 'counts/:id/data', element: <Lazy><SensorDataPage /></Lazy> },
               { path: 'records', element: <RecordsPage /> },
               { path: 'profile', element: <ProfilePage /> },
               {

@@ -153,6 +153,7 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
       actions={
         <>
           <Link to={`/counts/${countId}/report`}>Count report</Link>
+          <Link to={`/counts/${countId}/data`}>Sensor data</Link>
           {mayReport ? <Link to={`/anomalies/new?countId=${countId}&at=${Math.round(at)}`}>Report anomaly at this instant</Link> : null}
         </>
       }

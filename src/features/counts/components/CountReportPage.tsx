@@ -54,6 +54,7 @@ function Report({ r }: { r: CountReportDto }) {
           Print this report
         </Button>
         <Link to={`/counts/${r.countId}`}>Back to the count</Link>
+        <Link to={`/counts/${r.countId}/data`}>Sensor data</Link>
       </div>
       <div className="flex flex-col gap-6">
         <section aria-labelledby="r-t0">

@@ -1,0 +1,20 @@
+/** Words and numbers for the sensor page. */
+
+/** -31.4 -> "T-31.40 s", 2.5 -> "T+2.50 s", 0 -> "T-0". */
+export function formatT(seconds: number): string {
+  if (Math.abs(seconds) < 0.005) return 'T-0';
+  return `T${seconds < 0 ? '-' : '+'}${Math.abs(seconds).toFixed(2)} s`;
+}
+
+/** A reading with a sensible number of digits: 27.3148 -> "27.31", 0.004 -> "0.004". */
+export function formatValue(value: number, unit: string): string {
+  const abs = Math.abs(value);
+  const text = abs !== 0 && (abs < 0.01 || abs >= 1e6) ? value.toExponential(2) : abs < 1 ? value.toFixed(3) : value.toFixed(2);
+  return unit ? `${text} ${unit}` : text;
+}
+
+export function limitsWords(low: number | null, high: number | null, unit: string): string {
+  if (low === null && high === null) return 'none';
+  if (low !== null && high !== null) return `${formatValue(low, unit)} to ${formatValue(high, unit)}`;
+  return low !== null ? `at least ${formatValue(low, unit)}` : `at most ${formatValue(high!, unit)}`;
+}
