@@ -24,7 +24,7 @@ export async function startHoldfire(
   const sequelize = await openDatabase(config);
   initModels(sequelize);
   await migrate(sequelize);
-  if (config.seed === 'demo') await seedDemo({ passwordCost: options.passwordCost });
+  if (config.seed === 'demo') await seedDemo({ passwordCost: options.passwordCost, dataDir: config.dataDir });
 
   const smtp = config.smtpUrl ? undefined : await startFakeSmtp();
   const mailer = createMailer(config.smtpUrl ?? smtp!.url, config.mailFrom, { local: !config.smtpUrl });

@@ -11,6 +11,7 @@
 import type { Transaction } from 'sequelize';
 import { canonicalJson, eventHash, GENESIS_HASH } from '../../src/domain/count/chain';
 import type { CountEvent as DomainEvent } from '../../src/domain/count/events';
+import { countReport, type CountReport } from '../../src/domain/count/report';
 import { CountSimulation, inLimitsValue, type SimPerson } from '../../src/domain/count/simulate';
 import { openHolds } from '../../src/domain/count/state';
 import { parseTMinus } from '../../src/domain/procedures/tminus';
@@ -21,7 +22,7 @@ import { findProcedure, latestReleasedNumber, findRevision } from '../procedures
 
 export interface DemoCounts {
   scrubbed: { countId: number };
-  completed: { countId: number; t0At: number };
+  completed: { countId: number; t0At: number; report: CountReport };
   redline: { countId: number; t0At: number; redlineAt: number };
 }
 
@@ -201,7 +202,7 @@ export async function seedDemoCounts(teamId: number, users: User[], transaction:
   };
   return {
     scrubbed: { countId: scrubbed.row.id },
-    completed: { countId: completed.row.id, t0At: t0(completed.sim) },
+    completed: { countId: completed.row.id, t0At: t0(completed.sim), report: countReport(completed.sim.events) },
     redline: { countId: redline.row.id, t0At: t0(redline.sim), redlineAt },
   };
 }

@@ -74,6 +74,27 @@ describe('the demo counts', () => {
     expect(r.actualT0At).not.toBeNull();
   });
 
+  it('static fire 3’s redline became the demo anomaly, linked to the surge hazard', async () => {
+    const anomalies = (await auditor.get(`/api/anomalies?countId=${idOf('Kestrel-2 static fire 3')}`).expect(200)).body as { countId: number; hazardIds: number[]; tText: string }[];
+    expect(anomalies).toHaveLength(1);
+    const hazards = (await auditor.get('/api/hazards?q=surge').expect(200)).body as { id: number; code: string }[];
+    const surge = hazards.find((h) => h.code === 'HZ-001')!;
+    expect(anomalies[0]!.hazardIds).toContain(surge.id);
+    // The redline reading was at T-13:30 (-810 s); the anomaly is reported at that instant.
+    expect(anomalies[0]!.tText).toContain('13:30');
+  });
+
+  it('static fire 2 carries its recorded sensor data: chamber pressure, thrust and both tank pressures', async () => {
+    const list = (await auditor.get(`/api/counts/${idOf('Kestrel-2 static fire 2')}/sensors`).expect(200)).body as {
+      datasets: { rows: number; channels: { name: string }[] }[];
+      timeline: { t0At: number | null };
+    };
+    expect(list.datasets).toHaveLength(2);
+    const names = list.datasets.flatMap((d) => d.channels.map((c) => c.name.toLowerCase())).join(' ');
+    for (const word of ['chamber', 'thrust', 'lox', 'fuel']) expect(names).toContain(word);
+    expect(list.timeline.t0At).toBe((await report('Kestrel-2 static fire 2')).actualT0At);
+  });
+
   it('a restart leaves the finished demo counts alone', async () => {
     await t.holdfire.counts.recover();
     const again = (await auditor.get('/api/counts').expect(200)).body as { name: string; status: string }[];
