@@ -25,6 +25,9 @@ export default defineConfig({
           name: 'node',
           include: ['tests/**/*.test.ts'],
           environment: 'node',
+          // Files share their worker's module cache instead of importing everything again (147 s to 68 s here):
+          // a test file must leave no global behind (fake timers, stubbed globals, a replaced socket factory).
+          isolate: false,
           globals: true,
           testTimeout: 20_000,
           hookTimeout: 30_000,
@@ -36,6 +39,7 @@ export default defineConfig({
           name: 'client',
           include: ['tests/**/*.test.tsx'],
           environment: 'jsdom',
+          isolate: false,
           globals: true,
           setupFiles: ['tests/setup-dom.ts'],
           // userEvent typing in jsdom can pass 5 s on a loaded 2-core machine; this is not a speed test.
