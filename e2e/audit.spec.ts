@@ -4,7 +4,7 @@ import { expect, expectAccessible, storageStateFor, test } from './fixtures';
 // recorder fault (DATA, T-7:10) and an igniter fault at T-0:41 that sent it back to T-10:00.
 test.use({ storageState: storageStateFor('auditor') });
 
-test('an auditor finds what happened at a count time, who called that hold and why, and whether the record changed', async ({ page, consoleErrors }) => {
+test('an auditor finds what happened at a count time, who called that hold and why, sees T-0 on the recorded data, and whether the record changed', async ({ page, consoleErrors }) => {
   void consoleErrors;
   await page.goto('/counts');
   await page.getByRole('link', { name: 'Kestrel-2 static fire 2' }).first().click();
@@ -33,6 +33,13 @@ test('an auditor finds what happened at a count time, who called that hold and w
   await page.setViewportSize({ width: 390, height: 844 });
   const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
   expect(overflow, 'replay scrolls sideways on a phone').toBeLessThanOrEqual(0);
+
+  // The recorded data of the same count, on the count's own timeline: T-0 marked on the plot.
+  await page.getByRole('link', { name: 'Sensor data' }).first().click();
+  const plot = page.getByRole('img', { name: /Plot of .* against seconds from T-0/ }).first();
+  await expect(plot).toBeVisible();
+  await expect(plot.getByText('T-0', { exact: true })).toBeVisible();
+  await page.goBack();
 
   await page.getByRole('link', { name: 'Count report' }).first().click();
   await expect(page.getByRole('heading', { level: 1 })).toContainText('Kestrel-2 static fire 2');

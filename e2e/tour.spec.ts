@@ -40,6 +40,9 @@ const pages: { role: RoleName | null; path: string; name: string; long?: boolean
   // The demo's second count, at its recorder hold (server/db/seed-counts.ts), and its report.
   { role: 'auditor', path: '/counts/2/replay?at=1748681735000', name: 'count-replay' },
   { role: 'auditor', path: '/counts/2/report', name: 'count-report' },
+  { role: 'operator', path: '/counts/2/data', name: 'sensor-data' },
+  { role: 'auditor', path: '/anomalies', name: 'anomalies' },
+  { role: 'safety', path: '/anomalies/1', name: 'anomaly' },
   { role: 'auditor', path: '/records', name: 'records' },
   { role: 'admin', path: '/admin/people', name: 'people' },
   { role: 'admin', path: '/admin/mail', name: 'mail' },
