@@ -153,7 +153,7 @@ export function StationBoard({ state }: { state: CountState }) {
     <section aria-label="Stations" className="rounded-md border-2 border-line bg-surface p-3">
       <h2 className="mb-2 text-xl font-bold">Stations</h2>
       {crew.length === 0 ? <p className="text-ink-muted">No crew on this count.</p> : null}
-      <div className="overflow-x-auto">
+      <div role="region" aria-label="Station table" tabIndex={0} className="overflow-x-auto">
       <table className="w-full text-left text-sm sm:text-base [&_td]:pr-1 [&_th]:pr-1">
         <thead>
           <tr>
