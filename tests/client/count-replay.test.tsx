@@ -109,6 +109,32 @@ describe('the replay', () => {
     expect(within(banner).getByText(/h1 called by PROP \(Rowan Fenn\)/)).toBeInTheDocument();
   });
 
+  it('marks the anomalies reported at instants of the count, jumps to the next one, and lists the holds by category', async () => {
+    const user = userEvent.setup();
+    const anomaly = { id: 9, ref: 'AN-009', title: 'LOX vent valve stuck half open', status: 'open', severityLabel: 'Serious', countId: 5, atMs: CREATED + 120_000, hazardIds: [] };
+    fakeApi({
+      'GET /api/auth/me': json(200, people.operator),
+      'GET /api/setup': json(200, { needsFirstAdmin: false, teamName: 'Tern Valley Rocketry Collective' }),
+      'GET /api/counts/5/events': json(200, events),
+      'GET /api/anomalies?countId=5': json(200, [anomaly]),
+    });
+    renderApp(`/counts/5/replay?at=${CREATED + 10_000}`);
+    const holds = await screen.findByRole('list', { name: 'Holds on the timeline' });
+    expect(within(holds).getByRole('button', { name: /h1 Propellant at/ })).toBeInTheDocument();
+    expect(screen.queryByRole('region', { name: 'Anomaly at this instant' })).not.toBeInTheDocument();
+
+    await user.click(await screen.findByRole('button', { name: 'Next anomaly' }));
+    // 120 s after the count was made: during the hold (100 s to 160 s), so the clock stands at T-28:22.
+    expect(screen.getByRole('timer')).toHaveTextContent('T-00:28:22');
+    const here = screen.getByRole('region', { name: 'Anomaly at this instant' });
+    expect(within(here).getByRole('link', { name: 'AN-009: LOX vent valve stuck half open' })).toHaveAttribute('href', '/anomalies/9');
+
+    // A hold in the list takes the replay to its call.
+    await user.click(within(holds).getByRole('button', { name: /h1 Propellant at/ }));
+    expect(screen.queryByRole('region', { name: 'Anomaly at this instant' })).not.toBeInTheDocument();
+    expect(screen.getByRole('region', { name: 'Hold' })).toBeInTheDocument();
+  });
+
   it('without an instant shows the end of the log: counting again after the resume', async () => {
     open('/counts/5/replay');
     expect(await screen.findByRole('timer')).toHaveTextContent('T-00:28:22');

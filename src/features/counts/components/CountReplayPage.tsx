@@ -15,6 +15,7 @@ import { formatTMinus, parseTMinus, T_MINUS_HINT } from '../../../domain/procedu
 import { api, errorMessage } from '../../../lib/api';
 import { useSignedInMe } from '../../../lib/session';
 import { countKeys } from '../api/keys';
+import { useCountAnomalies } from '../api/listCountAnomalies';
 import { logT, type LogEntry } from '../hooks/useLiveCount';
 import { RecordCheck } from './RecordCheck';
 import { BigClock, CountLog, HoldBanner, PollTable, StationBoard, StatusLine, StepCard } from './CountParts';
@@ -22,7 +23,7 @@ import { BigClock, CountLog, HoldBanner, PollTable, StationBoard, StatusLine, St
 const SPEEDS = [1, 10, 60] as const;
 const TICK_MS = 250;
 
-type Mark = { kind: 'hold' | 'poll' | 'redline' | 'recycle' | 'scrub'; at: number };
+type Mark = { kind: 'hold' | 'poll' | 'redline' | 'recycle' | 'scrub' | 'anomaly'; at: number };
 
 function marksOf(events: readonly CountEvent[]): Mark[] {
   const out: Mark[] = [];
@@ -85,7 +86,12 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
       return { event: e, t: logT(before, s, e) };
     });
   }, [events]);
-  const marks = useMemo(() => marksOf(events), [events]);
+  const anomalies = useCountAnomalies(countId);
+  const reported = useMemo(() => (anomalies.data ?? []).filter((a) => a.atMs >= first && a.atMs <= last), [anomalies.data, first, last]);
+  const marks = useMemo(
+    () => [...marksOf(events), ...reported.map((a): Mark => ({ kind: 'anomaly', at: a.atMs }))].sort((a, b) => a.at - b.at),
+    [events, reported],
+  );
   // Every hold of the whole count, shaded on the timeline.
   const allHolds = useMemo(() => stateAt(events, last).holds, [events, last]);
   const state = useMemo(() => stateAt(events, at), [events, at]);
@@ -163,17 +169,40 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
           <p className="text-lg font-bold">
             {format(at, 'yyyy-MM-dd HH:mm:ss')} <span className="text-ink-muted">(server time)</span>
           </p>
-          <div aria-hidden="true" className="relative h-4 w-full rounded bg-sunken">
+          <div aria-hidden="true" className="relative h-5 w-full rounded bg-sunken">
             {allHolds.map((h) => (
               <span
                 key={h.holdId}
-                className="absolute top-0 h-4 border-x-2 border-danger bg-danger-wash"
+                className="absolute top-0 h-5 overflow-hidden border-x-2 border-danger bg-danger-wash text-center text-xs leading-5 font-bold text-danger"
                 style={{ left: `${pct(h.calledAt)}%`, width: `${Math.max(0.5, pct(h.endedAt ?? last) - pct(h.calledAt))}%`, maxWidth: `${100 - pct(h.calledAt)}%` }}
                 title={`${h.holdId}: ${HOLD_CATEGORY_LABELS[h.category]}`}
-              />
+              >
+                {HOLD_CATEGORY_LABELS[h.category].charAt(0)}
+              </span>
             ))}
-            <span className="absolute top-[-4px] h-6 w-1 bg-ink" style={{ left: `min(${pct(at)}%, 100% - 0.25rem)` }} />
+            {reported.map((a) => (
+              <span key={`a${a.id}`} className="absolute top-1 h-3 w-3 rotate-45 border-2 border-ink bg-caution" style={{ left: `calc(${pct(a.atMs)}% - 0.375rem)` }} title={a.ref} />
+            ))}
+            <span className="absolute top-[-4px] h-7 w-1 bg-ink" style={{ left: `min(${pct(at)}%, 100% - 0.25rem)` }} />
           </div>
+          {allHolds.length > 0 ? (
+            <ul aria-label="Holds on the timeline" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+              {allHolds.map((h) => (
+                <li key={h.holdId}>
+                  <button
+                    type="button"
+                    className="min-h-8 underline"
+                    onClick={() => {
+                      setPlaying(false);
+                      setAt(h.calledAt);
+                    }}
+                  >
+                    {h.holdId} {HOLD_CATEGORY_LABELS[h.category]} at {format(h.calledAt, 'HH:mm:ss')}
+                  </button>
+                </li>
+              ))}
+            </ul>
+          ) : null}
           <label className="flex flex-col gap-1 font-bold">
             Instant shown
             <input
@@ -209,6 +238,9 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
             <Button onClick={() => jump('poll', 1)}>Next poll</Button>
             <Button onClick={() => jump('redline', 1)}>Next redline</Button>
             <Button onClick={() => jump('recycle', 1)}>Next recycle</Button>
+            <Button onClick={() => jump('anomaly', 1)} disabled={reported.length === 0}>
+              Next anomaly
+            </Button>
           </div>
           <form onSubmit={goToT} className="flex flex-wrap items-end gap-2">
             <TextField
@@ -232,6 +264,23 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
         <BigClock t={t} />
         <StatusLine state={state} />
         <HoldBanner state={state} />
+        {reported.some((a) => Math.abs(a.atMs - at) < 1000) ? (
+          <section aria-label="Anomaly at this instant" className="rounded-md border-2 border-line bg-surface p-3">
+            <h2 className="text-xl font-bold">Anomaly reported at this instant</h2>
+            <ul className="mt-1 flex flex-col gap-1">
+              {reported
+                .filter((a) => Math.abs(a.atMs - at) < 1000)
+                .map((a) => (
+                  <li key={a.id}>
+                    <Link className="font-bold underline" to={`/anomalies/${a.id}`}>
+                      {a.ref}: {a.title}
+                    </Link>{' '}
+                    ({a.severityLabel}, {a.status})
+                  </li>
+                ))}
+            </ul>
+          </section>
+        ) : null}
         {state.poll ? (
           <PollTable poll={state.poll} now={at} />
         ) : state.polls.length > 0 ? (
