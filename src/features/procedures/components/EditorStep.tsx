@@ -73,6 +73,7 @@ export const EditorStep = memo(function EditorStep({
       ref={sortable.setNodeRef}
       style={style}
       data-step-key={step.key}
+      data-step-kind={step.kind}
       className={
         'rounded-md border-2 bg-surface ' +
         (sortable.isDragging ? 'border-dashed border-line-soft opacity-40 ' : problemCount ? 'border-danger border-[3px] ' : 'border-line ')

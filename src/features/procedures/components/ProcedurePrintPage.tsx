@@ -206,7 +206,7 @@ export function PrintedProcedure({ procedure: p, revision: r, lookups }: { proce
                   {phase.steps.map((step, si) => {
                     const n = starts[pi]! + si;
                     return (
-                      <tr key={step.key} className="hf-print-step align-top">
+                      <tr key={step.key} className="hf-print-step align-top" data-step-key={step.key} data-step-kind={step.kind}>
                         <td className="border-2 border-line p-1.5 font-bold">{n}</td>
                         <td className="border-2 border-line p-1.5">
                           <TimeMark tSeconds={step.tSeconds} className="text-base" />

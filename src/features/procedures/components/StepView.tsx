@@ -67,7 +67,7 @@ export function StepDetails({ step, lookups }: { step: Step; lookups: Lookups })
 /** One step, read-only: time, station, kind, instruction and facts beside its cautions. */
 export function StepCard({ step, number, lookups, children }: { step: StepDto; number: number; lookups: Lookups; children?: ReactNode }) {
   return (
-    <li className="rounded-md border-2 border-line bg-surface p-3" data-step-key={step.key}>
+    <li className="rounded-md border-2 border-line bg-surface p-3" data-step-key={step.key} data-step-kind={step.kind}>
       <div className="grid gap-3 lg:grid-cols-[minmax(0,1fr)_minmax(0,24rem)]">
         <div className="min-w-0">
           <p className="flex flex-wrap items-center gap-x-3 gap-y-1">
