@@ -25,6 +25,11 @@ import type { EventLog, StoredEvent } from './log';
 
 /** How long a station's last connection may be gone before the count shows it as lost. */
 export const STATION_GRACE_MS = 5000;
+
+/** Scrubbed or complete: nothing more is appended to its log, not even who is connected. */
+function hasEnded(state: CountState): boolean {
+  return state.status === 'scrubbed' || state.status === 'complete';
+}
 /** How long after a failed commit a count is read back from its log. */
 export const REVIVE_AFTER_MS = 1000;
 
@@ -373,6 +378,8 @@ export class CountService {
       }
       const drafts: EventDraft[] = [];
       for (const station of stations) {
+        // A count that has ended keeps its log as it closed: presence is no longer part of it.
+        if (hasEnded(c.projected)) break;
         const set = c.present.get(station) ?? new Set<string>();
         set.add(socketId);
         c.present.set(station, set);
@@ -402,12 +409,12 @@ export class CountService {
 
   /** The station shows as lost if no connection of it is back within STATION_GRACE_MS. */
   private armLost(c: LiveCount, station: string): void {
-    if (c.lostTimers.has(station) || this.closed) return;
+    if (c.lostTimers.has(station) || this.closed || hasEnded(c.projected)) return;
     const timer = setTimeout(() => {
       c.lostTimers.delete(station);
       if ((c.present.get(station)?.size ?? 0) > 0 || this.counts.get(c.id) !== c) return;
       void this.enqueue(c, async () => {
-        if ((c.present.get(station)?.size ?? 0) > 0 || c.projected.stations[station]?.presence !== 'connected') return;
+        if ((c.present.get(station)?.size ?? 0) > 0 || c.projected.stations[station]?.presence !== 'connected' || hasEnded(c.projected)) return;
         await this.submit(c, [{ type: 'station:lost', payload: { station }, actor: null, station } as EventDraft]);
       }).catch((error) => this.deps.logError?.(`count ${c.id}: presence failed`, error));
     }, STATION_GRACE_MS);

@@ -3,9 +3,12 @@
  * worked by hand from the seed's story (server/db/seed-counts.ts) and the demo procedure's plan: it starts at
  * T-2:00:00 with built-in holds of 10 min (T-30:00) and 5 min (T-5:00).
  */
+import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO } from '../helpers/api';
+import { STATION_GRACE_MS } from '../../server/counts/service';
+import { DEMO, signInWithCookie } from '../helpers/api';
 import { startTestApp, type TestApp, type TestClient } from '../helpers/app';
+import { connected, openSocket } from '../helpers/counts';
 
 let t: TestApp;
 let auditor: TestClient;
@@ -93,6 +96,27 @@ describe('the demo counts', () => {
     const names = list.datasets.flatMap((d) => d.channels.map((c) => c.name.toLowerCase())).join(' ');
     for (const word of ['chamber', 'thrust', 'lox', 'fuel']) expect(names).toContain(word);
     expect(list.timeline.t0At).toBe((await report('Kestrel-2 static fire 2')).actualT0At);
+  });
+
+  it('a finished count’s log stays as it closed: no presence is logged once read back, nor when its crew opens it', async () => {
+    const id = idOf('Kestrel-2 static fire 2');
+    const before = (await auditor.get(`/api/counts/${id}/verify`).expect(200)).body;
+    // The log shows the stations connected when it closed; reading it back arms nothing, and a crew member's phone
+    // joining the finished count adds nothing.
+    await new Promise<void>((resolve) => t.holdfire.httpServer.listen(0, '127.0.0.1', resolve));
+    const url = `http://127.0.0.1:${(t.holdfire.httpServer.address() as AddressInfo).port}`;
+    const { cookie } = await signInWithCookie(t, DEMO.propellants);
+    const phone = openSocket(url, cookie);
+    try {
+      await connected(phone);
+      await phone.timeout(5000).emitWithAck('count:join', { countId: id, sinceSeq: 0 });
+      await new Promise((resolve) => setTimeout(resolve, STATION_GRACE_MS + 500));
+    } finally {
+      phone.disconnect();
+    }
+    await new Promise((resolve) => setTimeout(resolve, STATION_GRACE_MS + 500));
+    const after = (await auditor.get(`/api/counts/${id}/verify`).expect(200)).body;
+    expect(after).toEqual(before);
   });
 
   it('a restart leaves the finished demo counts alone', async () => {
