@@ -52,6 +52,14 @@ interface Pending {
 interface Tail {
   seq: number;
   hash: string;
+  /** The command ids stored for the count, so a group can tell a retry without reading the database. */
+  commands: ReadonlySet<string>;
+}
+
+interface Built {
+  rows: StoredEvent[];
+  newTails: Map<number, Tail & { commands: Set<string> }>;
+  outcomes: Map<Pending, StoredEvent[] | EventLogError>;
 }
 
 const LIMITS = { type: 60, actorName: 120, station: 40, commandId: 100 };
@@ -188,52 +196,27 @@ export class EventLog {
 
   private async commitGroup(group: Pending[]): Promise<void> {
     const countIds = [...new Set(group.map((p) => p.countId))];
-    const newTails = new Map<number, Tail>();
-    const outcomes = new Map<Pending, StoredEvent[] | EventLogError>();
+    let built: Built | null = null;
     try {
-      await this.transactionRetryingBusy(async (tx) => {
-        newTails.clear();
-        outcomes.clear();
-        const known = await this.loadTails(countIds, tx);
-        const earlier = await storedCommands(group, tx);
-        const rows: StoredEvent[] = [];
-        for (const pending of group) {
-          const tail = newTails.get(pending.countId) ?? known.get(pending.countId);
-          if (!tail) {
-            outcomes.set(pending, new EventLogError('count_not_found', `There is no count ${pending.countId}.`));
-            continue;
-          }
-          const key = pending.commandId === null ? null : commandKey(pending.countId, pending.commandId);
-          const already = key === null ? undefined : earlier.get(key);
-          if (already) {
-            outcomes.set(pending, already);
-            continue;
-          }
-          const stored: StoredEvent[] = [];
-          let { seq, hash } = tail;
-          const at = this.now();
-          for (const draft of pending.drafts) {
-            const content = {
-              countId: pending.countId,
-              seq: seq + 1,
-              type: draft.type,
-              at: draft.at ?? at,
-              actor: draft.actor,
-              station: draft.station,
-              payload: draft.payload,
-            };
-            const event: StoredEvent = { ...content, commandId: pending.commandId, prevHash: hash, hash: await eventHash(hash, content, sha256Hex) };
-            stored.push(event);
-            seq = event.seq;
-            hash = event.hash;
-          }
-          newTails.set(pending.countId, { seq, hash });
-          if (key !== null) earlier.set(key, stored);
-          outcomes.set(pending, stored);
-          rows.push(...stored);
-        }
-        await tx.insert(rows);
-      });
+      // The usual group: every tail cached and no command id seen before. Its rows are known before any read, and
+      // one INSERT statement on its own is a whole transaction (atomic, and durable at its commit): one trip to
+      // the database instead of four (BEGIN, the command-id check, INSERT, COMMIT).
+      const cached = this.cachedTails(countIds);
+      const repeats = cached !== null && group.some((p) => p.commandId !== null && cached.get(p.countId)!.commands.has(p.commandId));
+      const rows = cached === null || repeats || !this.writer.insertAtomic ? null : await this.build(group, cached, new Map());
+      if (rows !== null && this.writer.insertAtomic!.fits(rows.rows.length)) {
+        await this.retryingBusy(() => this.writer.insertAtomic!.run(rows.rows));
+        built = rows;
+      } else {
+        await this.retryingBusy(() =>
+          this.writer.transaction(async (tx) => {
+            const known = await this.loadTails(countIds, tx);
+            const earlier = await storedCommands(group, known, tx);
+            built = await this.build(group, known, earlier);
+            await tx.insert(built.rows);
+          }),
+        );
+      }
     } catch (error) {
       // Nothing of the group is stored; forget the tails so the next commit reads them from the database.
       for (const countId of countIds) this.tails.delete(countId);
@@ -246,6 +229,7 @@ export class EventLog {
       for (const pending of stale) pending.reject(error);
       return;
     }
+    const { newTails, outcomes } = built as unknown as Built;
     this.committed += 1;
     for (const [countId, tail] of newTails) this.tails.set(countId, tail);
     for (const pending of group) {
@@ -255,11 +239,70 @@ export class EventLog {
     }
   }
 
-  /** One write transaction, tried again after the configured waits while SQLite answers SQLITE_BUSY. */
-  private async transactionRetryingBusy(work: (tx: LogTransaction) => Promise<void>): Promise<void> {
+  /** The cached tails of all these counts, or null when one must be read from the database. */
+  private cachedTails(countIds: number[]): Map<number, Tail> | null {
+    const tails = new Map<number, Tail>();
+    for (const id of countIds) {
+      const tail = this.tails.get(id);
+      if (!tail) return null;
+      tails.set(id, tail);
+    }
+    return tails;
+  }
+
+  /**
+   * The group's rows, chained on the given tails; `earlier` holds the events already stored for command ids of
+   * the group. The new tails carry new command-id sets: the cached ones change only after the commit.
+   */
+  private async build(group: Pending[], known: Map<number, Tail>, earlier: Map<string, StoredEvent[]>): Promise<Built> {
+    const newTails: Built['newTails'] = new Map();
+    const outcomes = new Map<Pending, StoredEvent[] | EventLogError>();
+    const rows: StoredEvent[] = [];
+    for (const pending of group) {
+      const tail = newTails.get(pending.countId) ?? known.get(pending.countId);
+      if (!tail) {
+        outcomes.set(pending, new EventLogError('count_not_found', `There is no count ${pending.countId}.`));
+        continue;
+      }
+      const key = pending.commandId === null ? null : commandKey(pending.countId, pending.commandId);
+      const already = key === null ? undefined : earlier.get(key);
+      if (already) {
+        outcomes.set(pending, already);
+        continue;
+      }
+      const stored: StoredEvent[] = [];
+      let { seq, hash } = tail;
+      const at = this.now();
+      for (const draft of pending.drafts) {
+        const content = {
+          countId: pending.countId,
+          seq: seq + 1,
+          type: draft.type,
+          at: draft.at ?? at,
+          actor: draft.actor,
+          station: draft.station,
+          payload: draft.payload,
+        };
+        const event: StoredEvent = { ...content, commandId: pending.commandId, prevHash: hash, hash: await eventHash(hash, content, sha256Hex) };
+        stored.push(event);
+        seq = event.seq;
+        hash = event.hash;
+      }
+      const commands = newTails.get(pending.countId)?.commands ?? new Set(tail.commands);
+      if (pending.commandId !== null) commands.add(pending.commandId);
+      newTails.set(pending.countId, { seq, hash, commands });
+      if (key !== null) earlier.set(key, stored);
+      outcomes.set(pending, stored);
+      rows.push(...stored);
+    }
+    return { rows, newTails, outcomes };
+  }
+
+  /** One write (a transaction or a lone INSERT), tried again after the configured waits while SQLite answers SQLITE_BUSY. */
+  private async retryingBusy(write: () => Promise<void>): Promise<void> {
     for (let attempt = 0; ; attempt++) {
       try {
-        await this.writer.transaction(work);
+        await write();
         return;
       } catch (error) {
         const delay = this.busyRetryDelays[attempt];
@@ -281,19 +324,21 @@ export class EventLog {
     if (missing.length === 0) return tails;
     const counts = await tx.all<{ id: number }>(`SELECT id FROM counts WHERE id IN (${marks(missing.length)})`, missing);
     for (const { id } of counts) {
-      const [last] = await tx.all<Tail>('SELECT seq, hash FROM count_events WHERE count_id = ? ORDER BY seq DESC LIMIT 1', [id]);
-      tails.set(id, last ? { seq: last.seq, hash: last.hash } : { seq: 0, hash: GENESIS_HASH });
+      const [last] = await tx.all<{ seq: number; hash: string }>('SELECT seq, hash FROM count_events WHERE count_id = ? ORDER BY seq DESC LIMIT 1', [id]);
+      const ids = await tx.all<{ command_id: string }>('SELECT DISTINCT command_id FROM count_events WHERE count_id = ? AND command_id IS NOT NULL', [id]);
+      const commands = new Set(ids.map((r) => r.command_id));
+      tails.set(id, last ? { seq: last.seq, hash: last.hash, commands } : { seq: 0, hash: GENESIS_HASH, commands });
     }
     return tails;
   }
 }
 
-/** Events already stored for the group's command ids, by count and command. */
-async function storedCommands(group: Pending[], tx: LogTransaction): Promise<Map<string, StoredEvent[]>> {
+/** Events already stored for the group's command ids (those the tails list as stored), by count and command. */
+async function storedCommands(group: Pending[], tails: Map<number, Tail>, tx: LogTransaction): Promise<Map<string, StoredEvent[]>> {
   const found = new Map<string, StoredEvent[]>();
   const byCount = new Map<number, Set<string>>();
   for (const p of group) {
-    if (p.commandId === null) continue;
+    if (p.commandId === null || !tails.get(p.countId)?.commands.has(p.commandId)) continue;
     const ids = byCount.get(p.countId) ?? new Set<string>();
     ids.add(p.commandId);
     byCount.set(p.countId, ids);

@@ -154,6 +154,7 @@ describe('group commit', () => {
     const transactions = vi.spyOn(sequelize, 'transaction');
     // The log writes on its own sqlite3 connection: count the transactions it begins there.
     const run = vi.spyOn(sqlite3.Database.prototype, 'run');
+    const statementRun = vi.spyOn(sqlite3.Statement.prototype, 'run');
     const commitsBefore = log.commits;
 
     const CALLERS = 20;
@@ -169,8 +170,10 @@ describe('group commit', () => {
     );
     const sequelizeTransactions = transactions.mock.calls.length;
     const started = run.mock.calls.filter(([sql]) => sql === 'BEGIN IMMEDIATE').length;
+    const statements = statementRun.mock.calls.length;
     transactions.mockRestore();
     run.mockRestore();
+    statementRun.mockRestore();
 
     const appends = CALLERS * EACH;
     const events = await log.read(count.id);
@@ -187,11 +190,14 @@ describe('group commit', () => {
 
     const walCommitted = walCommits(dbFile);
     const logCommits = log.commits - commitsBefore;
-    // The commits counted three ways agree: transactions begun on the log's connection, the log's own counter,
-    // and the commit frames SQLite wrote to disk. A BEGIN that ran after its inserts would show as one commit per
-    // row here. None went through Sequelize (which would open a connection per transaction).
+    // The commits counted three ways agree: INSERT statements run on the log's connection, the log's own counter,
+    // and the commit frames SQLite wrote to disk. The count's tail was cached after its first event, so every
+    // group was one multi-row INSERT in autocommit mode (a transaction of its own) and none began a transaction;
+    // a statement that committed row by row would show as more commit frames than statements. None went
+    // through Sequelize (which would open a connection per transaction).
     expect(sequelizeTransactions).toBe(0);
-    expect(started).toBe(logCommits);
+    expect(started).toBe(0);
+    expect(statements).toBe(logCommits);
     expect(walCommitted).toBe(logCommits);
     expect(logCommits).toBeLessThan(appends / 2);
     expect(logCommits).toBeGreaterThanOrEqual(EACH);
