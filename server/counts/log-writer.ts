@@ -38,6 +38,12 @@ export interface LogTransaction {
  */
 export interface LogWriter {
   transaction(work: (tx: LogTransaction) => Promise<void>): Promise<void>;
+  /**
+   * Where the database makes a single INSERT statement a transaction of its own (SQLite in autocommit mode):
+   * stores `rows` with that one statement, all or nothing, resolving after its commit. `fits` says whether
+   * so many rows go in one statement.
+   */
+  insertAtomic?: { fits(rows: number): boolean; run(rows: EventRow[]): Promise<void> };
   /** The connection's settings, for tests and diagnostics. */
   settings(): Promise<{ journalMode: string; synchronous: number; foreignKeys: number; busyTimeout: number }>;
   close(): Promise<void>;
@@ -127,6 +133,18 @@ export class SqliteLogWriter implements LogWriter {
       throw error;
     }
   }
+
+  readonly insertAtomic = {
+    fits: (rows: number) => rows >= 1 && rows <= INSERT_CHUNK,
+    run: async (rows: EventRow[]) => {
+      if (!this.insertAtomic.fits(rows.length)) throw new Error(`One statement takes 1 to ${INSERT_CHUNK} rows.`);
+      const { db, insert } = await this.connection();
+      const statement = rows.length === 1 ? insert : await this.statementFor(db, rows.length);
+      // In autocommit mode the statement is its own transaction: with synchronous=FULL it resolves after the WAL
+      // is synced, and a failed statement (a UNIQUE seq taken by another writer) stores none of its rows.
+      await new Promise<void>((resolve, reject) => statement.run(rows.flatMap(values), (error: Error | null) => (error ? reject(error) : resolve())));
+    },
+  };
 
   async transaction(work: (tx: LogTransaction) => Promise<void>): Promise<void> {
     const { db, insert } = await this.connection();
