@@ -82,7 +82,7 @@ describe('the sensor data page', () => {
     const thrust = within(table).getByRole('row', { name: /thrust \(kN\)/ });
     expect(within(thrust).getAllByRole('cell')[3]).toHaveTextContent('no limits set');
     expect(screen.getByRole('img', { name: /Plot of chamber_pressure, thrust against seconds from T-0, T-1.00 s to T\+1.50 s/ })).toBeInTheDocument();
-    expect(screen.getByText('Hold h1 (weather, Gusts over the berm): T-180.00 s to T-90.00 s')).toBeInTheDocument();
+    expect(screen.getByText('Hold h1 (weather, Gusts over the berm): T-3:00 to T-1:30')).toBeInTheDocument();
     expect(screen.getByText(/Out-of-limits reading at T-14.00 s: LOX tank pressure \(PROP\) 15 bar/)).toBeInTheDocument();
     expect(screen.getByText(/T-0 was reached at 2026-05-17 14:30:00 UTC/)).toBeInTheDocument();
     expect(screen.getByRole('link', { name: 'Original file' })).toHaveAttribute('href', '/api/uploads/3');
@@ -143,5 +143,18 @@ describe('the sensor data page', () => {
     expect(screen.queryByRole('heading', { name: 'Add test data' })).not.toBeInTheDocument();
     expect(screen.queryByText('Edit limits')).not.toBeInTheDocument();
     expect(screen.queryByRole('button', { name: 'Remove this dataset' })).not.toBeInTheDocument();
+  });
+});
+
+describe('count times on the sensor page', () => {
+  it('read to the hundredth of a second near T-0 and as the count clock a minute or more away', async () => {
+    const { formatT } = await import('../../src/features/sensors/components/format');
+    expect(formatT(-31.4)).toBe('T-31.40 s');
+    expect(formatT(2.5)).toBe('T+2.50 s');
+    expect(formatT(0.001)).toBe('T-0');
+    expect(formatT(-59.99)).toBe('T-59.99 s');
+    expect(formatT(-60)).toBe('T-1:00');
+    expect(formatT(-4739)).toBe('T-1:18:59');
+    expect(formatT(95.6)).toBe('T+1:36');
   });
 });

@@ -1,8 +1,13 @@
 /** Words and numbers for the sensor page. */
+import { formatTMinus } from '../../../domain/procedures/tminus';
 
-/** -31.4 -> "T-31.40 s", 2.5 -> "T+2.50 s", 0 -> "T-0". */
+/**
+ * -31.4 -> "T-31.40 s", 2.5 -> "T+2.50 s", 0 -> "T-0"; a minute or more away from T-0 reads as the count's clock
+ * does, to the second: -4739 -> "T-1:18:59".
+ */
 export function formatT(seconds: number): string {
   if (Math.abs(seconds) < 0.005) return 'T-0';
+  if (Math.abs(seconds) >= 59.995) return formatTMinus(Math.round(seconds));
   return `T${seconds < 0 ? '-' : '+'}${Math.abs(seconds).toFixed(2)} s`;
 }
 
