@@ -1,4 +1,5 @@
 import { spawn, type ChildProcess } from 'node:child_process';
+import { symlinkSync } from 'node:fs';
 import { createServer } from 'node:net';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -22,16 +23,49 @@ export function freePort(): Promise<number> {
   });
 }
 
+/**
+ * The standby entry (tests/helpers/server-standby.ts) and the server under it bundled by esbuild, the
+ * transformer tsx runs on, into one file in `outDir`; packages stay outside and load from the repository's
+ * node_modules. Loading it costs about half the CPU of tsx transforming the server's files at every start,
+ * which counts when a test starts the server twenty times. Returns the file to pass as `entry`.
+ */
+export async function bundleServer(outDir: string): Promise<string> {
+  const { build } = await import('esbuild');
+  const outfile = path.join(outDir, 'server-standby.mjs');
+  await build({
+    entryPoints: [path.join(repoRoot, 'tests/helpers/server-standby.ts')],
+    bundle: true,
+    platform: 'node',
+    format: 'esm',
+    target: 'node20',
+    packages: 'external',
+    outfile,
+    logLevel: 'error',
+  });
+  symlinkSync(path.join(repoRoot, 'node_modules'), path.join(outDir, 'node_modules'), 'dir');
+  return outfile;
+}
+
 export interface ServerProcess {
   child: ChildProcess;
+  /** For a standby process: start the server now (it opens the database only then). */
+  go(): void;
   ready: Promise<void>;
   exited: Promise<void>;
+  /** A standby process has loaded the server's modules (resolves at once otherwise). */
+  loaded: Promise<void>;
   /** Everything the process printed so far (stdout and stderr). */
   output(): string;
 }
 
-export function startServer(dir: string, port: number, env: Record<string, string> = {}): ServerProcess {
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join(repoRoot, 'server/index.ts')], {
+/**
+ * `standby: true` loads the server's modules now and starts the server at `go()` (tests/helpers/server-standby.ts),
+ * so a restart costs the start-up itself, not the module loading; `ready` then waits for `go()` as well.
+ * `entry`: a standby bundle from bundleServer, run by plain node.
+ */
+export function startServer(dir: string, port: number, env: Record<string, string> = {}, options: { standby?: boolean; entry?: string } = {}): ServerProcess {
+  const entry = options.entry ?? path.join(repoRoot, options.standby ? 'tests/helpers/server-standby.ts' : 'server/index.ts');
+  const child = spawn(process.execPath, options.entry ? [entry] : ['--import', 'tsx', entry], {
     cwd: repoRoot,
     env: {
       ...process.env,
@@ -44,14 +78,17 @@ export function startServer(dir: string, port: number, env: Record<string, strin
       APP_URL: `http://127.0.0.1:${port}`,
       ...env,
     },
-    stdio: ['ignore', 'pipe', 'pipe'],
+    stdio: [options.standby ? 'pipe' : 'ignore', 'pipe', 'pipe'],
   });
   let out = '';
+  let markLoaded = () => {};
+  const loaded = options.standby ? new Promise<void>((resolve) => (markLoaded = resolve)) : Promise.resolve();
   const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
   const ready = new Promise<void>((resolve, reject) => {
     const timer = setTimeout(() => reject(new Error(`server did not start: ${out}`)), 60_000);
     const seen = (chunk: Buffer) => {
       out += chunk.toString();
+      if (out.includes('standby: modules loaded')) markLoaded();
       if (out.includes('Holdfire is serving')) {
         clearTimeout(timer);
         resolve();
@@ -66,7 +103,7 @@ export function startServer(dir: string, port: number, env: Record<string, strin
   });
   // A rejection nobody waits for (the process killed on purpose after it was ready) is not an error.
   ready.catch(() => {});
-  return { child, ready, exited, output: () => out };
+  return { child, ready, exited, loaded, output: () => out, go: () => void child.stdin?.write('go\n') };
 }
 
 /** SIGKILL, and wait until the process is gone. */
