@@ -15,6 +15,7 @@ import { fileURLToPath } from 'node:url';
 import { io as connect } from 'socket.io-client';
 import WebSocket from 'ws';
 import type { CountEventDto } from '../src/contract/count';
+import { benchReplay } from './replay';
 import type { BenchStation, FromServer, FromStations, MessageSizes, ServerTimings, StationStats, ToServer, ToStations } from './protocol';
 
 const FULL = [
@@ -391,4 +392,7 @@ async function main() {
   }
 }
 
-await main();
+/** BENCH_PARTS=rtt,replay (default: all): which parts run. `replay` alone needs no server (bench/replay.ts). */
+const PARTS = new Set((process.env.BENCH_PARTS ?? 'rtt,replay').split(',').map((p) => p.trim()));
+if (PARTS.has('rtt')) await main();
+if (PARTS.has('replay')) benchReplay();

@@ -38,6 +38,19 @@ export function isDatabaseBusy(error: unknown): boolean {
   return e?.code === 'SQLITE_BUSY' || e?.parent?.code === 'SQLITE_BUSY' || e?.original?.code === 'SQLITE_BUSY';
 }
 
+/** SQLite's "database or disk is full" (the disk, or the file's size limit), as node-sqlite3 or Sequelize reports it. */
+export function isDatabaseFull(error: unknown): boolean {
+  const e = error as { code?: unknown; parent?: { code?: unknown }; original?: { code?: unknown } } | null;
+  return e?.code === 'SQLITE_FULL' || e?.parent?.code === 'SQLITE_FULL' || e?.original?.code === 'SQLITE_FULL';
+}
+
+/** The answer for a write the database could not take for now: busy or full. Nothing was stored either way. */
+export function storageRefusal(error: unknown): HttpError | null {
+  if (isDatabaseBusy(error)) return new HttpError(503, 'busy', 'The server is busy and saved nothing. Try again in a moment.');
+  if (isDatabaseFull(error)) return new HttpError(503, 'storage_full', 'The server’s disk is full and it saved nothing. Tell the administrator; try again once space is freed.');
+  return null;
+}
+
 export function createErrorHandler(log: (error: unknown) => void): ErrorRequestHandler {
   return (error, _req, res, _next) => {
     let status = 500;
@@ -64,13 +77,15 @@ export function createErrorHandler(log: (error: unknown) => void): ErrorRequestH
     } else if (typeof parserError?.status === 'number' && parserError.status >= 400 && parserError.status < 500) {
       status = parserError.status;
       body = { error: 'The request could not be read.', code: 'bad_request' };
-    } else if (isDatabaseBusy(error)) {
-      // Other writers held the database for longer than the busy timeout: nothing was written, and trying again
-      // shortly will most likely work. Logged, since it means the server is overloaded.
+    } else if (storageRefusal(error)) {
+      // Busy: other writers held the database for longer than the busy timeout. Full: the disk (or the file's
+      // limit) left no room. Nothing was written either way, and the same request can work later. Logged, since
+      // it means the server is overloaded or out of space.
       log(error);
+      const refusal = storageRefusal(error)!;
       status = 503;
-      res.setHeader('Retry-After', '2');
-      body = { error: 'The server is busy and saved nothing. Try again in a moment.', code: 'busy' };
+      if (refusal.code === 'busy') res.setHeader('Retry-After', '2');
+      body = { error: refusal.message, code: refusal.code };
     } else {
       log(error);
     }

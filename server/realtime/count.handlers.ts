@@ -2,7 +2,7 @@ import { countCommandPayloadSchema, countJoinSchema, countLeaveSchema } from '..
 import type { CountCommand } from '../../src/domain/count/commands';
 import type { Ack } from '../../src/contract/socket';
 import { countRoom, type CountService } from '../counts/service';
-import { HttpError } from '../http/errors';
+import { HttpError, storageRefusal } from '../http/errors';
 import { stateDto } from '../routes/counts.routes';
 import type { Request } from 'express';
 import type { HoldfireServer, HoldfireSocket } from './types';
@@ -14,6 +14,9 @@ const details = (issues: readonly Issue[]) => issues.map((i) => ({ path: i.path.
 function answerError(ack: Ack<never>, error: unknown, log: (m: string, e?: unknown) => void) {
   if (error instanceof HttpError) return ack({ error: error.message, details: error.details });
   log('count socket handler failed', error);
+  // The log could not store the command (busy or full): say so, since nothing happened and a retry can work.
+  const refusal = storageRefusal(error);
+  if (refusal) return ack({ error: refusal.message });
   ack({ error: 'The server could not do that. Try again; if it keeps failing, tell the test conductor on the radio.' });
 }
 

@@ -1,74 +1,18 @@
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
-import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
-import { DEMO, sessionCookie } from '../helpers/api';
+import { DEMO } from '../helpers/api';
 import { connected, openSocket } from '../helpers/counts';
+import { freePort, signIn, startServer } from '../helpers/server-process';
 
 /**
  * The whole server is killed with SIGKILL in the middle of a count and started again on the same database: every
  * acknowledged event is still there, the chain verifies, and the count that was counting is holding with the
- * reason "control server restarted". It never resumes by itself.
+ * reason "control server restarted". It never resumes by itself. (npm run test:faults does this at random
+ * points, many times: tests/faults/kill.test.ts.)
  */
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = createServer();
-    s.once('error', reject);
-    s.listen(0, '127.0.0.1', () => {
-      const port = (s.address() as { port: number }).port;
-      s.close(() => resolve(port));
-    });
-  });
-}
-
-function startServer(dir: string, port: number): { child: ChildProcess; ready: Promise<void> } {
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'server/index.ts')], {
-    cwd: root,
-    env: {
-      ...process.env,
-      PORT: String(port),
-      HOST: '127.0.0.1',
-      HOLDFIRE_DATA_DIR: dir,
-      DATABASE_URL: `sqlite:${path.join(dir, 'holdfire.sqlite')}`,
-      HOLDFIRE_SEED: 'demo',
-      NODE_ENV: 'test',
-      APP_URL: `http://127.0.0.1:${port}`,
-    },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  let out = '';
-  const ready = new Promise<void>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error(`server did not start: ${out}`)), 60_000);
-    const seen = (chunk: Buffer) => {
-      out += chunk.toString();
-      if (out.includes('Holdfire is serving')) {
-        clearTimeout(timer);
-        resolve();
-      }
-    };
-    child.stdout!.on('data', seen);
-    child.stderr!.on('data', seen);
-    child.once('exit', (code) => reject(new Error(`server exited (${code}): ${out}`)));
-  });
-  return { child, ready };
-}
-
-async function signIn(base: string, email: string) {
-  const agent = request.agent(base);
-  let csrf = (await agent.get('/api/auth/csrf').expect(200)).body.csrfToken;
-  const res = await agent.post('/api/auth/login').set('X-CSRF-Token', csrf).send({ email, password: 'kestrel-demo' }).expect(200);
-  const cookie = sessionCookie(res);
-  expect(cookie).toBeTruthy();
-  csrf = (await agent.get('/api/auth/csrf').expect(200)).body.csrfToken;
-  return { agent, cookie: cookie!, post: (url: string, body: object) => agent.post(url).set('X-CSRF-Token', csrf).send(body), get: (url: string) => agent.get(url) };
-}
-
 describe('the server killed mid-count', () => {
   const dir = mkdtempSync(path.join(tmpdir(), 'holdfire-count-kill-'));
   const children: ChildProcess[] = [];
