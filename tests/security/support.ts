@@ -49,7 +49,7 @@ export async function caller(t: SecurityApp, email: string | null): Promise<Call
   }
   const jar = (agent as unknown as { jar: { getCookie(name: string, opts: object): { value: string } | undefined } }).jar;
   const sid = jar.getCookie('holdfire.sid', { domain: '127.0.0.1', path: '/', secure: false, script: false });
-  const roles = email ? DEMO_USERS.find((u) => u.email === email)!.roles : [];
+  const roles = email ? (DEMO_USERS.find((u) => u.email === email)?.roles ?? (await User.findOne({ where: { email } }))!.roles) : [];
   return { email, roles, agent, csrf, cookie: sid ? `holdfire.sid=${sid.value}` : '' };
 }
 
@@ -103,7 +103,7 @@ let snapshotSql: string | undefined;
  * Row count and newest change of every table, the autoincrement counters and the files in the upload store.
  * Sessions are left out: reading a CSRF token may store one.
  */
-export async function snapshot(t: TestApp): Promise<string> {
+export async function snapshot(t: TestApp): Promise<Record<string, unknown>> {
   const sequelize = User.sequelize!;
   if (!snapshotSql) {
     const tables = (await sequelize.query<{ name: string }>("SELECT name FROM sqlite_master WHERE type = 'table'", { type: QueryTypes.SELECT }))
@@ -118,14 +118,14 @@ export async function snapshot(t: TestApp): Promise<string> {
     parts.push(`SELECT 'seq:' || name AS t, seq AS n, NULL AS m FROM sqlite_sequence`);
     snapshotSql = parts.join(' UNION ALL ');
   }
-  const rows = await sequelize.query(snapshotSql, { type: QueryTypes.SELECT });
+  const rows = await sequelize.query<{ t: string; n: number; m: unknown }>(snapshotSql, { type: QueryTypes.SELECT });
   let files: string[] = [];
   try {
     files = readdirSync(path.join(t.dataDir, 'uploads')).sort();
   } catch {
     files = [];
   }
-  return JSON.stringify({ rows, files });
+  return { ...Object.fromEntries(rows.map((r) => [r.t, `${r.n} ${String(r.m)}`])), files: files.join(' ') };
 }
 
 // ---------------------------------------------------------------- bad input
