@@ -57,6 +57,17 @@ beforeAll(async () => {
   await write(safety, 'post', `/api/hazards/${ids.hazard}/mitigations`, { kind: 'engineered-feature', description: payload(2, 'mitigation'), owner: payload(3, 'owner'), verificationMethod: payload(4, 'verificationMethod') });
   const procedure = await write(conductor, 'post', '/api/procedures', { name: payload(1, 'procName'), purpose: payload(2, 'purpose'), testArticle: payload(3, 'testArticle'), site: payload(4, 'site') });
   ids.procedure = procedure.id;
+  await write(conductor, 'put', `/api/procedures/${procedure.id}/revisions/1`, {
+    phases: [
+      {
+        name: payload(0, 'phaseName'),
+        steps: [
+          { kind: 'action', tSeconds: -15, station: 'TC', instruction: payload(1, 'instruction') },
+          { kind: 'reading', tSeconds: -14, station: 'PROP', instruction: payload(2, 'readingName'), unit: 'bar', min: null, max: 14 },
+        ],
+      },
+    ],
+  });
   const anomaly = await write(safety, 'post', '/api/anomalies', { title: payload(3, 'anomalyTitle'), description: payload(4, 'anomalyDescription'), severity: '2', immediateActions: payload(0, 'immediateActions') });
   ids.anomaly = anomaly.id;
   const p1 = await conductor.agent.get('/api/procedures/1').expect(200);
@@ -107,6 +118,7 @@ describe('stored text is shown as text', () => {
     ['hazard detail', () => `/hazards/${ids.hazard}`, 'safety', ['title', 'description', 'causes', 'effects', 'mitigation', 'owner']],
     ['procedure list', () => '/procedures', 'safety', ['procName']],
     ['procedure', () => `/procedures/${ids.procedure}`, 'safety', ['procName', 'purpose', 'testArticle', 'site']],
+    ['procedure revision (steps)', () => `/procedures/${ids.procedure}/revisions/1`, 'safety', ['phaseName', 'instruction', 'readingName']],
     ['count list', () => '/counts', 'safety', ['countName']],
     ['anomaly list', () => '/anomalies', 'safety', ['anomalyTitle']],
     ['anomaly detail', () => `/anomalies/${ids.anomaly}`, 'safety', ['anomalyTitle', 'anomalyDescription', 'immediateActions']],
