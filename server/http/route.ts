@@ -34,6 +34,8 @@ export interface RouteDef {
 }
 
 const empty = z.object({});
+/** A write that declares no body takes none: anything sent is refused instead of silently ignored. */
+const noBody = z.strictObject({}, 'This request takes no body.');
 
 /** Declare one route: its access rule, its schemas and a handler that receives parsed input. */
 export function route<B extends ZodType = typeof empty, Q extends ZodType = typeof empty, P extends ZodType = typeof empty>(def: {
@@ -87,7 +89,7 @@ export function mountRoutes(routes: readonly RouteDef[]): Router {
         res,
         params: parse(def.params, req.params, 'path'),
         query: parse(def.query, req.query, 'query'),
-        body: parse(def.body, req.body, 'body'),
+        body: parse(def.body ?? (def.method === 'get' ? undefined : noBody), req.body, 'body'),
         user: req.user,
       };
       const result = await def.handler(ctx);

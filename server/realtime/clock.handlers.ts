@@ -1,7 +1,7 @@
-import { z } from 'zod';
+import { CLIENT_EVENTS } from '../../src/contract/socket';
 import type { HoldfireServer, HoldfireSocket } from './types';
 
-const syncSchema = z.strictObject({ clientSentAt: z.number().finite() });
+const syncSchema = CLIENT_EVENTS['clock:sync'].schema;
 
 /** NTP-style sample: the client pairs its send and receive times with the server time to estimate its offset. */
 export function registerClockHandlers(_io: HoldfireServer, socket: HoldfireSocket, now: () => number = Date.now) {

@@ -1,4 +1,4 @@
-import { countCommandPayloadSchema, countJoinSchema, countLeaveSchema } from '../../src/contract/count';
+import { CLIENT_EVENTS } from '../../src/contract/socket';
 import type { CountCommand } from '../../src/domain/count/commands';
 import type { Ack } from '../../src/contract/socket';
 import { countRoom, type CountService } from '../counts/service';
@@ -37,7 +37,7 @@ export function registerCountHandlers(_io: HoldfireServer, socket: HoldfireSocke
 
   socket.on('count:join', async (payload, ack) => {
     if (typeof ack !== 'function') return;
-    const parsed = countJoinSchema.safeParse(payload);
+    const parsed = CLIENT_EVENTS['count:join'].schema.safeParse(payload);
     if (!parsed.success) return ack({ error: 'count:join needs { countId, sinceSeq }.', details: details(parsed.error.issues) });
     try {
       const u = await person();
@@ -53,7 +53,7 @@ export function registerCountHandlers(_io: HoldfireServer, socket: HoldfireSocke
   });
 
   socket.on('count:leave', async (payload) => {
-    const parsed = countLeaveSchema.safeParse(payload);
+    const parsed = CLIENT_EVENTS['count:leave'].schema.safeParse(payload);
     if (!parsed.success) return;
     joined.delete(parsed.data.countId);
     await socket.leave(countRoom(parsed.data.countId));
@@ -62,7 +62,7 @@ export function registerCountHandlers(_io: HoldfireServer, socket: HoldfireSocke
 
   socket.on('count:command', async (payload, ack) => {
     if (typeof ack !== 'function') return;
-    const parsed = countCommandPayloadSchema.safeParse(payload);
+    const parsed = CLIENT_EVENTS['count:command'].schema.safeParse(payload);
     if (!parsed.success) return ack({ error: 'That command is not valid.', details: details(parsed.error.issues) });
     try {
       const u = await person();

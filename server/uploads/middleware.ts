@@ -14,9 +14,11 @@ export function singleFileUpload(field = 'file') {
     defParamCharset: 'utf8',
     limits: { fileSize: UPLOAD_MAX_BYTES, files: 1, fields: 8, fieldSize: 4096, fieldNameSize: 100, parts: 10, headerPairs: 50 },
   }).single(field);
-  return (req: Request, res: Response, next: NextFunction) => {
+  const middleware = (req: Request, res: Response, next: NextFunction) => {
     parse(req, res, (error?: unknown) => next(error === undefined ? undefined : uploadError(error, field)));
   };
+  // Marks the route as taking a file, so the security suite finds every upload route in the route table.
+  return Object.assign(middleware, { uploadField: field });
 }
 
 function uploadError(error: unknown, field: string): HttpError {

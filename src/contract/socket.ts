@@ -2,7 +2,8 @@
  * The typed socket.io event map both sides import. Commands go client -> server and may be acknowledged
  * with `{ data } | { error, details }`; facts go server -> client, named in the past tense.
  */
-import type { CountCommandInput, CountEventDto, CountStateDto } from './count';
+import { z, type ZodType } from 'zod';
+import { countCommandPayloadSchema, countJoinSchema, countLeaveSchema, type CountCommandInput, type CountEventDto, type CountStateDto } from './count';
 
 export type Ack<T> = (reply: { data: T } | { error: string; details?: { path: string; message: string }[] }) => void;
 
@@ -35,3 +36,17 @@ export interface SocketData {
   /** The express-session id the socket was opened with, so signing out closes it. */
   sid: string;
 }
+
+export const clockSyncSchema = z.strictObject({ clientSentAt: z.number().finite() });
+
+/**
+ * Every client-to-server event with the schema its payload must pass and whether it is acknowledged. The type
+ * makes a new event without an entry here a compile error; the handlers validate with these schemas and the
+ * security suite fuzzes every event of this table.
+ */
+export const CLIENT_EVENTS = {
+  'clock:sync': { schema: clockSyncSchema, ack: true },
+  'count:join': { schema: countJoinSchema, ack: true },
+  'count:leave': { schema: countLeaveSchema, ack: false },
+  'count:command': { schema: countCommandPayloadSchema, ack: true },
+} as const satisfies Record<keyof ClientToServerEvents, { schema: ZodType; ack: boolean }>;
