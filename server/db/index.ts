@@ -1,5 +1,10 @@
+import pg from 'pg';
 import { Sequelize, Transaction } from 'sequelize';
 import type { Config } from '../config';
+
+// int8 (BIGINT: epoch milliseconds, COUNT(*)) as a JS number, not a string: every value we keep in one is far
+// below 2^53. Set once on the pg module, which Sequelize's postgres dialect and the count log's pool both use.
+pg.types.setTypeParser(pg.types.builtins.INT8, (value: string) => Number(value));
 
 export const BUSY_TIMEOUT_MS = 5000;
 
@@ -14,7 +19,10 @@ interface SqliteConnection {
  * turns them on per connection), and a busy timeout and synchronous=FULL on every connection, transactions' own
  * included (Sequelize opens a new connection per transaction), so a second writer waits instead of failing at once.
  */
-export async function openDatabase(config: Pick<Config, 'sqliteStorage'> & Partial<Pick<Config, 'dbBusyTimeoutMs'>>): Promise<Sequelize> {
+export async function openDatabase(
+  config: Pick<Config, 'sqliteStorage'> & Partial<Pick<Config, 'dbBusyTimeoutMs' | 'dialect' | 'databaseUrl'>>,
+): Promise<Sequelize> {
+  if (config.dialect === 'postgres') return openPostgres(config.databaseUrl!);
   const busyTimeoutMs = config.dbBusyTimeoutMs ?? BUSY_TIMEOUT_MS;
   const sequelize = new Sequelize({
     dialect: 'sqlite',
@@ -46,5 +54,21 @@ export async function openDatabase(config: Pick<Config, 'sqliteStorage'> & Parti
   };
   await sequelize.authenticate();
   if (config.sqliteStorage !== ':memory:') await sequelize.query('PRAGMA journal_mode = WAL;');
+  return sequelize;
+}
+
+/**
+ * Sequelize on PostgreSQL (several processes may share it). READ COMMITTED, PostgreSQL's default: the count log
+ * serialises its writers per count with a transaction-scoped advisory lock (server/counts/log-writer.ts).
+ */
+export async function openPostgres(url: string): Promise<Sequelize> {
+  const sequelize = new Sequelize(url, {
+    dialect: 'postgres',
+    dialectModule: pg,
+    logging: false,
+    define: { underscored: true },
+    pool: { max: 10, min: 0, idle: 10_000 },
+  });
+  await sequelize.authenticate();
   return sequelize;
 }

@@ -50,7 +50,8 @@ describe('loadConfig', () => {
     ['SMTP_URL', 'not a url'],
     ['HOLDFIRE_SEED', 'everything'],
     ['APP_URL', 'ftp://holdfire.example.org'],
-    ['DATABASE_URL', 'postgres://db/holdfire'],
+    ['DATABASE_URL', 'mysql://db/holdfire'],
+    ['DATABASE_URL', 'postgres://db-without-a-database-name'],
     ['SESSION_SECRET', 'too-short'],
     ['NODE_ENV', 'staging'],
   ])('a bad %s (%j) is a ConfigError naming the variable', (name, value) => {

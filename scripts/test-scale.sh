@@ -1,0 +1,66 @@
+#!/usr/bin/env bash
+# npm run test:scale: a throwaway PostgreSQL cluster and redis-server on loopback, then the API and socket tests
+# on PostgreSQL and the multi-process tests (tests/scale). Everything is stopped and removed at the end.
+#   scripts/test-scale.sh --env   start the services and print DATABASE_URL/REDIS_URL; stop with Ctrl-C
+set -euo pipefail
+cd "$(dirname "$0")/.."
+
+PG_BIN="${PG_BIN:-$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n 1)}"
+PG_PORT="${HOLDFIRE_SCALE_PG_PORT:-54329}"
+REDIS_PORT="${HOLDFIRE_SCALE_REDIS_PORT:-63799}"
+
+if [[ -z "$PG_BIN" || ! -x "$PG_BIN/initdb" ]] || ! command -v redis-server >/dev/null; then
+  if [[ "$(id -u)" == 0 ]] && command -v apt-get >/dev/null; then
+    echo "test:scale: installing postgresql and redis-server from Debian"
+    apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq postgresql redis-server >/dev/null
+    PG_BIN="$(ls -d /usr/lib/postgresql/*/bin | sort -V | tail -n 1)"
+  else
+    echo "test:scale needs PostgreSQL (initdb, pg_ctl) and redis-server: apt-get install postgresql redis-server" >&2
+    exit 1
+  fi
+fi
+
+WORK="$(mktemp -d /tmp/holdfire-scale-XXXXXX)"
+chmod 755 "$WORK"
+# PostgreSQL refuses to run as root: the cluster belongs to the postgres account (or to us when we are not root).
+as_pg() {
+  if [[ "$(id -u)" == 0 ]]; then runuser -u postgres -- "$@"; else "$@"; fi
+}
+PG_USER=holdfire
+cleanup() {
+  as_pg "$PG_BIN/pg_ctl" -D "$WORK/pg/data" -m immediate stop >/dev/null 2>&1 || true
+  [[ -f "$WORK/redis.pid" ]] && kill "$(cat "$WORK/redis.pid")" 2>/dev/null || true
+  sleep 0.2
+  rm -rf "$WORK"
+}
+trap cleanup EXIT
+
+mkdir "$WORK/pg"
+[[ "$(id -u)" == 0 ]] && chown postgres "$WORK/pg"
+as_pg "$PG_BIN/initdb" -D "$WORK/pg/data" -U "$PG_USER" --auth=trust -E UTF8 --no-locale >/dev/null
+# A test cluster: durability matters less than speed here (the log's own code asks for a durable commit either way).
+as_pg "$PG_BIN/pg_ctl" -D "$WORK/pg/data" -l "$WORK/pg/server.log" -w start \
+  -o "-h 127.0.0.1 -p $PG_PORT -k $WORK/pg -c fsync=off -c synchronous_commit=off -c full_page_writes=off -c max_connections=300" >/dev/null
+
+redis-server --port "$REDIS_PORT" --bind 127.0.0.1 --save '' --appendonly no --daemonize yes \
+  --pidfile "$WORK/redis.pid" --logfile "$WORK/redis.log" --dir "$WORK"
+for _ in $(seq 50); do [[ -s "$WORK/redis.pid" ]] && break; sleep 0.1; done
+
+export DATABASE_URL="postgres://$PG_USER@127.0.0.1:$PG_PORT/postgres"
+export REDIS_URL="redis://127.0.0.1:$REDIS_PORT"
+
+if [[ "${1:-}" == "--env" ]]; then
+  echo "export DATABASE_URL=$DATABASE_URL"
+  echo "export REDIS_URL=$REDIS_URL"
+  echo "(Ctrl-C stops both and removes $WORK)"
+  sleep infinity
+fi
+
+# (a) the API and socket tests on PostgreSQL; each test app makes and drops its own database.
+# (b) two processes on one PostgreSQL behind the Redis adapter.
+if [[ $# -gt 0 ]]; then
+  npx vitest run "$@"
+else
+  npx vitest run --project node tests/api
+  npx vitest run --project scale
+fi
