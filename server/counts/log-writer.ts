@@ -2,7 +2,7 @@ import pg from 'pg';
 import sqlite3 from 'sqlite3';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { canonicalJson } from '../../src/domain/count/chain';
-import { BUSY_TIMEOUT_MS } from '../db';
+import { ADVISORY_LOCK_CLASS, BUSY_TIMEOUT_MS } from '../db';
 
 /** The columns of count_events the log writes, in the order of INSERT_SQL's values. */
 const INSERT_COLUMNS = 'count_id, seq, type, payload, actor_user_id, actor_name, station, at, command_id, prev_hash, hash';
@@ -236,8 +236,6 @@ export class SequelizeLogWriter implements LogWriter {
   async close(): Promise<void> {}
 }
 
-/** The first key of the count log's advisory locks, so they cannot meet another application's ('Hold'). */
-const ADVISORY_LOCK_CLASS = 0x486f6c64;
 
 /** `?` placeholders as PostgreSQL's $1, $2, ... (the log's SQL has no `?` inside literals). */
 function numbered(sql: string): string {

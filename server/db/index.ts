@@ -70,5 +70,35 @@ export async function openPostgres(url: string): Promise<Sequelize> {
     pool: { max: 10, min: 0, idle: 10_000 },
   });
   await sequelize.authenticate();
+  serialiseTransactions(sequelize);
   return sequelize;
+}
+
+/** The first key of Holdfire's advisory locks ('Hold'); the count log's per-count locks use it too. */
+export const ADVISORY_LOCK_CLASS = 0x486f6c64;
+/** The second key of the lock every Sequelize write transaction takes (count ids start at 1). */
+const WRITE_LOCK_KEY = 0;
+
+/**
+ * SQLite's BEGIN IMMEDIATE lets one write transaction run at a time, and the routes' read-then-write checks
+ * (the first admin, an invitation accepted twice, a reset link used twice) rely on that. Under PostgreSQL's READ
+ * COMMITTED two of them would both pass the read: each managed transaction therefore first takes one advisory
+ * lock shared by every process, held until COMMIT or ROLLBACK. The count log does not take it (its writer has
+ * its own pool and per-count locks), so live counts never wait behind a slow form.
+ */
+function serialiseTransactions(sequelize: Sequelize): void {
+  const transaction = sequelize.transaction.bind(sequelize) as (options: unknown, fn?: unknown) => Promise<unknown>;
+  const locked = (fn: (t: Transaction) => Promise<unknown>) => async (t: Transaction) => {
+    await sequelize.query('SELECT pg_advisory_xact_lock(?, ?)', { replacements: [ADVISORY_LOCK_CLASS, WRITE_LOCK_KEY], transaction: t });
+    return fn(t);
+  };
+  (sequelize as unknown as { transaction: unknown }).transaction = (options: unknown, fn?: unknown) => {
+    if (typeof options === 'function') return transaction(locked(options as (t: Transaction) => Promise<unknown>));
+    if (typeof fn === 'function') return transaction(options, locked(fn as (t: Transaction) => Promise<unknown>));
+    // An unmanaged transaction (none in Holdfire today): lock right after BEGIN.
+    return transaction(options).then(async (t) => {
+      await sequelize.query('SELECT pg_advisory_xact_lock(?, ?)', { replacements: [ADVISORY_LOCK_CLASS, WRITE_LOCK_KEY], transaction: t as Transaction });
+      return t;
+    });
+  };
 }
