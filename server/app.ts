@@ -135,6 +135,8 @@ export function createApp(deps: AppDeps): HoldfireApp {
       const sockets = await io.in(countRoom(countId)).fetchSockets();
       return sockets.some((s) => mannedStations(state, s.data.userId).includes(station));
     },
+    // Only with Redis: socket.io's in-memory adapter has no other servers to tell.
+    announce: config.redisUrl ? (countId, lastSeq) => io?.serverSideEmit('count:appended', countId, lastSeq) : undefined,
   });
   const routes: RouteDef[] = [
     ...healthRoutes,
@@ -201,6 +203,9 @@ export function createApp(deps: AppDeps): HoldfireApp {
     next();
   });
   sessions.attach(server);
+  server.on('count:appended', (countId, lastSeq) => {
+    if (Number.isInteger(countId) && Number.isInteger(lastSeq)) counts.appendedElsewhere(countId, lastSeq);
+  });
   server.on('connection', (socket) => {
     void socket.join([sessionRoom(socket.data.sid), userRoom(socket.data.userId)]);
     registerClockHandlers(server, socket);

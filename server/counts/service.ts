@@ -94,6 +94,8 @@ export interface CountServiceDeps {
    * room on any process, asked before a station is logged as lost (its socket may be on another process).
    */
   stationPresentElsewhere?: (countId: number, station: string, state: CountState) => Promise<boolean>;
+  /** With a shared log: tells the other processes that this count's log grew (they fold it in, see appendedElsewhere). */
+  announce?: (countId: number, lastSeq: number) => void;
 }
 
 export class CountService {
@@ -142,6 +144,16 @@ export class CountService {
     this.schedule(c);
   }
 
+  /**
+   * Another process appended to a count up to `lastSeq`: if this process holds the count, it folds the events in,
+   * so its clock's timer follows the count (and goes on if the other process stops).
+   */
+  appendedElsewhere(countId: number, lastSeq: number): void {
+    const c = this.counts.get(countId);
+    if (!c || this.closed || lastSeq <= c.state.lastSeq) return;
+    void this.enqueue(c, () => this.refresh(c)).catch((error) => this.deps.logError?.(`count ${countId}: catching up failed`, error));
+  }
+
   /** Reads what other processes appended since this process last looked (no lock: a plain read). */
   private async refresh(c: LiveCount): Promise<void> {
     if (this.counts.get(c.id) !== c) return;
@@ -185,6 +197,7 @@ export class CountService {
       const made = madeStored.map(eventDto);
       if (commandId && made.length) c.commands.set(commandId, made);
       this.publish(c, all);
+      this.deps.announce?.(c.id, c.state.lastSeq);
       try {
         this.deps.onEvents?.(c, all);
       } catch (error) {

@@ -8,7 +8,7 @@ import type { Socket } from 'socket.io-client';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO, sessionCookie } from '../helpers/api';
 import { createTestDatabase, onPostgres } from '../helpers/app';
-import { connected, demoRevision, eventRecorder, openSocket } from '../helpers/counts';
+import { connected, demoRevision, eventRecorder, openSocket, releasedTinyProcedure } from '../helpers/counts';
 import type { TestClient } from '../helpers/app';
 
 /**
@@ -241,5 +241,26 @@ describe.skipIf(!ready)('two processes behind the Redis adapter', () => {
     await new Promise((r) => setTimeout(r, 1500));
     const { events } = await expectOneChain(id);
     expect(events.filter((e) => e.type === 'poll:closed' && e.payload.pollId === pollId)).toHaveLength(1);
+  });
+  // Last: it stops process A.
+  it('the clock goes on in B when A, which started the count, stops: B folded A’s events as they were announced', async () => {
+    const conductor = (await signIn(b, DEMO.conductor)).http;
+    const safety = (await signIn(b, DEMO.safety)).http;
+    const rev = await releasedTinyProcedure(conductor, safety, `Kestrel-2 chill test ${Date.now()}`);
+    const id = (await conductor.post('/api/counts', { ...rev, name: 'Started on A' }).expect(201)).body.id as number;
+    // B holds the count in memory (the conductor watches there); the start is decided and logged by A.
+    const watcher = await person(b, DEMO.conductor, id);
+    const onA = (await signIn(a, DEMO.conductor)).http;
+    await onA.post(`/api/counts/${id}/commands`, { type: 'count:start' }).expect(200);
+    await watcher.events.waitFor((e) => e.type === 'count:started');
+    await stopProcess(a);
+    // T-3 to T-0 in three seconds: only B's timer is left to log the steps, and it has one only if B's copy of
+    // the count knows the clock is running.
+    const t0 = await watcher.events.waitFor((e) => e.type === 't0:reached', 15_000);
+    expect(t0.seq).toBeGreaterThan(0);
+    const events = (await conductor.get(`/api/counts/${id}/events`).expect(200)).body as { seq: number; type: string }[];
+    expect(events.map((e) => e.seq)).toEqual(events.map((_, i) => i + 1));
+    expect(events.filter((e) => e.type === 't0:reached')).toHaveLength(1);
+    expect((await conductor.get(`/api/counts/${id}/verify`).expect(200)).body).toMatchObject({ ok: true });
   });
 });
