@@ -3,7 +3,7 @@ import { createClient } from 'redis';
 import type { SignInLimits } from './auth/rate-limit';
 import { createApp, type HoldfireApp } from './app';
 import { loadConfig, type Config } from './config';
-import { openDatabase } from './db';
+import { openDatabase, withStartupLock } from './db';
 import { migrate } from './db/migrator';
 import { seedDemo } from './db/seed';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
@@ -25,8 +25,11 @@ export async function startHoldfire(
   const config = loadConfig(env);
   const sequelize = await openDatabase(config);
   initModels(sequelize);
-  await migrate(sequelize);
-  if (config.seed === 'demo') await seedDemo({ passwordCost: options.passwordCost, dataDir: config.dataDir });
+  // Processes started together on one PostgreSQL migrate and seed one after the other.
+  await withStartupLock(sequelize, async () => {
+    await migrate(sequelize);
+    if (config.seed === 'demo') await seedDemo({ passwordCost: options.passwordCost, dataDir: config.dataDir });
+  });
 
   const smtp = config.smtpUrl ? undefined : await startFakeSmtp();
   const mailer = createMailer(config.smtpUrl ?? smtp!.url, config.mailFrom, { local: !config.smtpUrl });

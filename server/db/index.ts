@@ -78,6 +78,34 @@ export async function openPostgres(url: string): Promise<Sequelize> {
 export const ADVISORY_LOCK_CLASS = 0x486f6c64;
 /** The second key of the lock every Sequelize write transaction takes (count ids start at 1). */
 const WRITE_LOCK_KEY = 0;
+/** The second key of the start-up lock (migrations and seed); negative, so never a count id. */
+const STARTUP_LOCK_KEY = -1;
+
+/**
+ * Runs `work` (migrations, the demo seed) holding a session-level advisory lock on a connection of its own, so
+ * several processes started at once on one PostgreSQL do it one after the other: umzug has no lock of its own.
+ * On SQLite it just runs `work`.
+ */
+export async function withStartupLock(sequelize: Sequelize, work: () => Promise<void>): Promise<void> {
+  if (sequelize.getDialect() !== 'postgres') return work();
+  const c = sequelize.config;
+  const client = new pg.Client({
+    host: c.host,
+    port: c.port === undefined ? undefined : Number(c.port),
+    database: c.database,
+    user: c.username,
+    password: c.password ?? undefined,
+    ...(c.ssl ? { ssl: c.ssl as pg.ClientConfig['ssl'] } : {}),
+  });
+  await client.connect();
+  try {
+    await client.query('SELECT pg_advisory_lock($1, $2)', [ADVISORY_LOCK_CLASS, STARTUP_LOCK_KEY]);
+    await work();
+  } finally {
+    // Ending the session releases the lock, also when `work` threw.
+    await client.end();
+  }
+}
 
 /**
  * SQLite's BEGIN IMMEDIATE lets one write transaction run at a time, and the routes' read-then-write checks
