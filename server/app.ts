@@ -18,7 +18,7 @@ import { initModels } from './models';
 import { CountEvents } from './counts/events';
 import { EventLog } from './counts/log';
 import type { CountEvent } from '../src/domain/count/events';
-import { countRoom, CountService } from './counts/service';
+import { countRoom, CountService, mannedStations } from './counts/service';
 import { registerClockHandlers } from './realtime/clock.handlers';
 import { registerCountHandlers } from './realtime/count.handlers';
 import type { HoldfireServer } from './realtime/types';
@@ -129,6 +129,14 @@ export function createApp(deps: AppDeps): HoldfireApp {
     broadcast: (countId, events) => io?.to(countRoom(countId)).emit('count:events', events),
     onEvents: (count, events) => countEvents.handle(count, events),
     logError: log,
+    // Several processes: the count's room spans them all through the socket.io adapter (Redis).
+    stationPresentElsewhere: async (countId, station, state) => {
+      if (!io) return false;
+      const sockets = await io.in(countRoom(countId)).fetchSockets();
+      return sockets.some((s) => mannedStations(state, s.data.userId).includes(station));
+    },
+    // Only with Redis: socket.io's in-memory adapter has no other servers to tell.
+    announce: config.redisUrl ? (countId, lastSeq) => io?.serverSideEmit('count:appended', countId, lastSeq) : undefined,
   });
   const routes: RouteDef[] = [
     ...healthRoutes,
@@ -195,6 +203,9 @@ export function createApp(deps: AppDeps): HoldfireApp {
     next();
   });
   sessions.attach(server);
+  server.on('count:appended', (countId, lastSeq) => {
+    if (Number.isInteger(countId) && Number.isInteger(lastSeq)) counts.appendedElsewhere(countId, lastSeq);
+  });
   server.on('connection', (socket) => {
     void socket.join([sessionRoom(socket.data.sid), userRoom(socket.data.userId)]);
     registerClockHandlers(server, socket);

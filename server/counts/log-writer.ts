@@ -1,7 +1,8 @@
+import pg from 'pg';
 import sqlite3 from 'sqlite3';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { canonicalJson } from '../../src/domain/count/chain';
-import { BUSY_TIMEOUT_MS } from '../db';
+import { ADVISORY_LOCK_CLASS, BUSY_TIMEOUT_MS } from '../db';
 
 /** The columns of count_events the log writes, in the order of INSERT_SQL's values. */
 const INSERT_COLUMNS = 'count_id, seq, type, payload, actor_user_id, actor_name, station, at, command_id, prev_hash, hash';
@@ -27,8 +28,14 @@ export interface EventRow {
 
 /** What the event log may do inside its one write transaction. */
 export interface LogTransaction {
+  /** SQL with `?` placeholders (the PostgreSQL writer numbers them). */
   all<R>(sql: string, params: unknown[]): Promise<R[]>;
   insert(rows: EventRow[]): Promise<void>;
+  /**
+   * Holds these counts' logs until the transaction ends, against every other writer of the database (other
+   * processes included). SQLite's BEGIN IMMEDIATE holds the whole file already; PostgreSQL takes a lock per count.
+   */
+  lockCounts(countIds: readonly number[]): Promise<void>;
 }
 
 /**
@@ -151,6 +158,7 @@ export class SqliteLogWriter implements LogWriter {
     await run(db, 'BEGIN IMMEDIATE');
     try {
       await work({
+        lockCounts: async () => {},
         all: <R>(sql: string, params: unknown[]) =>
           new Promise<R[]>((resolve, reject) => db.all(sql, params, (error: Error | null, rows: R[]) => (error ? reject(error) : resolve(rows)))),
         insert: async (rows) => {
@@ -216,6 +224,7 @@ export class SequelizeLogWriter implements LogWriter {
   async transaction(work: (tx: LogTransaction) => Promise<void>): Promise<void> {
     await this.sequelize.transaction(async (transaction) => {
       await work({
+        lockCounts: async () => {},
         all: <R>(sql: string, params: unknown[]) =>
           this.sequelize.query(sql, { replacements: params, type: QueryTypes.SELECT, transaction }) as Promise<R[]>,
         insert: async (rows) => {
@@ -243,4 +252,93 @@ export class SequelizeLogWriter implements LogWriter {
   }
 
   async close(): Promise<void> {}
+}
+
+
+/** `?` placeholders as PostgreSQL's $1, $2, ... (the log's SQL has no `?` inside literals). */
+function numbered(sql: string): string {
+  let n = 0;
+  return sql.replace(/\?/g, () => `$${++n}`);
+}
+
+/**
+ * The log on PostgreSQL, which several Holdfire processes may share: a small pool of its own, one client per
+ * transaction. lockCounts takes a transaction-scoped advisory lock per count (in id order, so two groups cannot
+ * deadlock); whoever holds it reads the count's tail and appends, and the lock goes with COMMIT or ROLLBACK.
+ * synchronous_commit is set on for the log's transactions whatever the server's default, so COMMIT returns
+ * only once the events are in the flushed WAL.
+ */
+export class PostgresLogWriter implements LogWriter {
+  private readonly pool: pg.Pool;
+  private closed = false;
+
+  constructor(connection: pg.PoolConfig) {
+    this.pool = new pg.Pool({ ...connection, max: 4, idleTimeoutMillis: 10_000 });
+    // An idle client whose server went away: the next transaction gets a new one; nothing to do here.
+    this.pool.on('error', () => {});
+  }
+
+  /** The connection of a Sequelize instance on PostgreSQL. */
+  static forSequelize(sequelize: Sequelize): PostgresLogWriter {
+    const c = sequelize.config;
+    return new PostgresLogWriter({
+      host: c.host,
+      port: c.port === undefined ? undefined : Number(c.port),
+      database: c.database,
+      user: c.username,
+      password: c.password ?? undefined,
+      ...(c.ssl ? { ssl: c.ssl as pg.PoolConfig['ssl'] } : {}),
+    });
+  }
+
+  async transaction(work: (tx: LogTransaction) => Promise<void>): Promise<void> {
+    if (this.closed) throw new Error('The event log is closed.');
+    const client = await this.pool.connect();
+    let broken: Error | undefined;
+    try {
+      await client.query('BEGIN');
+      await client.query('SET LOCAL synchronous_commit = on');
+      await work({
+        all: async <R>(sql: string, params: unknown[]) => (await client.query(numbered(sql), params)).rows as R[],
+        insert: async (rows) => {
+          for (let i = 0; i < rows.length; i += INSERT_CHUNK) {
+            const chunk = rows.slice(i, i + INSERT_CHUNK);
+            const sql = `INSERT INTO count_events (${INSERT_COLUMNS}) VALUES ${chunk.map(() => ROW_MARKS).join(', ')}`;
+            await client.query(numbered(sql), chunk.flatMap(values));
+          }
+        },
+        lockCounts: async (countIds) => {
+          for (const id of [...new Set(countIds)].sort((a, b) => a - b)) {
+            await client.query('SELECT pg_advisory_xact_lock($1, $2)', [ADVISORY_LOCK_CLASS, id]);
+          }
+        },
+      });
+      await client.query('COMMIT');
+    } catch (error) {
+      await client.query('ROLLBACK').catch((e: Error) => {
+        broken = e;
+      });
+      throw error;
+    } finally {
+      client.release(broken);
+    }
+  }
+
+  /** PostgreSQL's counterparts of the SQLite settings: always WAL; synchronous 2 when commits wait for the flush. */
+  async settings() {
+    const show = async (name: string) => ((await this.pool.query(`SHOW ${name}`)).rows[0] as Record<string, string>)[name]!;
+    const lockTimeout = await show('lock_timeout');
+    return {
+      journalMode: 'wal',
+      synchronous: (await show('synchronous_commit')) === 'off' ? 0 : 2,
+      foreignKeys: 1,
+      busyTimeout: Number.parseInt(lockTimeout, 10) || 0,
+    };
+  }
+
+  async close(): Promise<void> {
+    if (this.closed) return;
+    this.closed = true;
+    await this.pool.end();
+  }
 }

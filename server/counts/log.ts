@@ -10,7 +10,7 @@ import {
   type EventActor,
 } from '../../src/domain/count/chain';
 import { CountEvent } from '../models/count-event.model';
-import { SequelizeLogWriter, SqliteLogWriter, sqliteFile, type LogTransaction, type LogWriter } from './log-writer';
+import { PostgresLogWriter, SequelizeLogWriter, SqliteLogWriter, sqliteFile, type LogTransaction, type LogWriter } from './log-writer';
 
 /** SHA-256 as lowercase hex of the UTF-8 text, for chain.ts. */
 export function sha256Hex(text: string): Promise<string> {
@@ -52,8 +52,11 @@ interface Pending {
 interface Tail {
   seq: number;
   hash: string;
-  /** The command ids stored for the count, so a group can tell a retry without reading the database. */
-  commands: ReadonlySet<string>;
+  /**
+   * The command ids stored for the count, so a group can tell a retry without reading the database; null where
+   * other processes write too (then the group's ids are looked up under the count's lock).
+   */
+  commands: ReadonlySet<string> | null;
 }
 
 interface Built {
@@ -98,6 +101,11 @@ function isBusy(error: unknown): boolean {
  */
 export class EventLog {
   private readonly writer: LogWriter;
+  /**
+   * PostgreSQL, which other processes may write too: no tail is trusted from memory, every write transaction
+   * locks its counts and reads their tails, and the live counts decide inside that lock (exclusive()).
+   */
+  readonly shared: boolean;
   private readonly now: () => number;
   private queue: Pending[] = [];
   /** The running drain, if any; close() waits for it. */
@@ -109,9 +117,14 @@ export class EventLog {
   private readonly busyRetryDelays: readonly number[];
 
   constructor(deps: EventLogDeps) {
-    const file = sqliteFile(deps.sequelize);
-    // An in-memory database lives on Sequelize's one connection: a second connection would open another, empty one.
-    this.writer = file === null ? new SequelizeLogWriter(deps.sequelize) : new SqliteLogWriter(file, deps.busyTimeoutMs);
+    this.shared = deps.sequelize.getDialect() === 'postgres';
+    if (this.shared) {
+      this.writer = PostgresLogWriter.forSequelize(deps.sequelize);
+    } else {
+      const file = sqliteFile(deps.sequelize);
+      // An in-memory database lives on Sequelize's one connection: a second connection would open another, empty one.
+      this.writer = file === null ? new SequelizeLogWriter(deps.sequelize) : new SqliteLogWriter(file, deps.busyTimeoutMs);
+    }
     this.now = deps.now ?? Date.now;
     this.busyRetryDelays = deps.busyRetryDelaysMs ?? BUSY_RETRY_DELAYS_MS;
   }
@@ -185,6 +198,62 @@ export class EventLog {
     return verifyChain(events, sha256Hex);
   }
 
+  /**
+   * For a log that other processes write too (shared): one transaction holding the count's lock, in which
+   * `decide` is given the events stored after `sinceSeq` (appended by others since this process last looked)
+   * and returns what to append, as appends of one commandId (or none) each. Resolves after COMMIT with the
+   * events read and the stored events of each append. Nothing is written if `decide` throws; seq and hash
+   * follow the tail read under the lock, so no two processes can fork the chain.
+   */
+  async exclusive(
+    countId: number,
+    sinceSeq: number,
+    decide: (others: StoredEvent[]) => { drafts: EventDraft[]; commandId: string | null }[],
+  ): Promise<{ others: StoredEvent[]; stored: StoredEvent[][] }> {
+    if (this.closed) throw new Error('The event log is closed.');
+    let result: { others: StoredEvent[]; stored: StoredEvent[][] } = { others: [], stored: [] };
+    await this.writer.transaction(async (tx) => {
+      await tx.lockCounts([countId]);
+      const [count] = await tx.all<{ id: number }>('SELECT id FROM counts WHERE id = ?', [countId]);
+      if (!count) throw new EventLogError('count_not_found', `There is no count ${countId}.`);
+      const others = (
+        await tx.all<RawEvent>(`SELECT ${RAW_COLUMNS} FROM count_events WHERE count_id = ? AND seq > ? ORDER BY seq`, [countId, sinceSeq])
+      ).map(fromRaw);
+      let tail: { seq: number; hash: string };
+      const newest = others.at(-1);
+      if (newest) tail = { seq: newest.seq, hash: newest.hash };
+      else {
+        const [last] = await tx.all<{ seq: number; hash: string }>('SELECT seq, hash FROM count_events WHERE count_id = ? ORDER BY seq DESC LIMIT 1', [countId]);
+        tail = last ? { seq: last.seq, hash: last.hash } : { seq: 0, hash: GENESIS_HASH };
+      }
+      const appends = decide(others).map((a) => checkDrafts(countId, a.drafts.map((d) => ({ ...d, commandId: a.commandId }))));
+      const stored: StoredEvent[][] = [];
+      const at = this.now();
+      for (const append of appends) {
+        const events: StoredEvent[] = [];
+        for (const draft of append.drafts) {
+          const content = {
+            countId,
+            seq: tail.seq + 1,
+            type: draft.type,
+            at: draft.at ?? at,
+            actor: draft.actor,
+            station: draft.station,
+            payload: draft.payload,
+          };
+          const event: StoredEvent = { ...content, commandId: append.commandId, prevHash: tail.hash, hash: await eventHash(tail.hash, content, sha256Hex) };
+          events.push(event);
+          tail = { seq: event.seq, hash: event.hash };
+        }
+        stored.push(events);
+      }
+      await tx.insert(stored.flat());
+      result = { others, stored };
+    });
+    this.committed += 1;
+    return result;
+  }
+
   private async drain(): Promise<void> {
     while (this.queue.length > 0) {
       const group = this.queue;
@@ -202,7 +271,7 @@ export class EventLog {
       // one INSERT statement on its own is a whole transaction (atomic, and durable at its commit): one trip to
       // the database instead of four (BEGIN, the command-id check, INSERT, COMMIT).
       const cached = this.cachedTails(countIds);
-      const repeats = cached !== null && group.some((p) => p.commandId !== null && cached.get(p.countId)!.commands.has(p.commandId));
+      const repeats = cached !== null && group.some((p) => p.commandId !== null && cached.get(p.countId)!.commands?.has(p.commandId) !== false);
       const rows = cached === null || repeats || !this.writer.insertAtomic ? null : await this.build(group, cached, new Map());
       if (rows !== null && this.writer.insertAtomic!.fits(rows.rows.length)) {
         await this.retryingBusy(() => this.writer.insertAtomic!.run(rows.rows));
@@ -210,6 +279,8 @@ export class EventLog {
       } else {
         await this.retryingBusy(() =>
           this.writer.transaction(async (tx) => {
+            // Shared with other processes (PostgreSQL): no tail is cached, and the counts' locks order the writers.
+            if (this.shared) await tx.lockCounts(countIds);
             const known = await this.loadTails(countIds, tx);
             const earlier = await storedCommands(group, known, tx);
             built = await this.build(group, known, earlier);
@@ -231,7 +302,7 @@ export class EventLog {
     }
     const { newTails, outcomes } = built as unknown as Built;
     this.committed += 1;
-    for (const [countId, tail] of newTails) this.tails.set(countId, tail);
+    if (!this.shared) for (const [countId, tail] of newTails) this.tails.set(countId, tail);
     for (const pending of group) {
       const outcome = outcomes.get(pending);
       if (outcome instanceof Error || outcome === undefined) pending.reject(outcome ?? new Error('append lost its outcome'));
@@ -288,7 +359,7 @@ export class EventLog {
         seq = event.seq;
         hash = event.hash;
       }
-      const commands = newTails.get(pending.countId)?.commands ?? new Set(tail.commands);
+      const commands = newTails.get(pending.countId)?.commands ?? new Set(tail.commands ?? []);
       if (pending.commandId !== null) commands.add(pending.commandId);
       newTails.set(pending.countId, { seq, hash, commands });
       if (key !== null) earlier.set(key, stored);
@@ -325,8 +396,10 @@ export class EventLog {
     const counts = await tx.all<{ id: number }>(`SELECT id FROM counts WHERE id IN (${marks(missing.length)})`, missing);
     for (const { id } of counts) {
       const [last] = await tx.all<{ seq: number; hash: string }>('SELECT seq, hash FROM count_events WHERE count_id = ? ORDER BY seq DESC LIMIT 1', [id]);
-      const ids = await tx.all<{ command_id: string }>('SELECT DISTINCT command_id FROM count_events WHERE count_id = ? AND command_id IS NOT NULL', [id]);
-      const commands = new Set(ids.map((r) => r.command_id));
+      // Read once and then kept with the cached tail; a shared log caches nothing and asks per group instead.
+      const commands = this.shared
+        ? null
+        : new Set((await tx.all<{ command_id: string }>('SELECT DISTINCT command_id FROM count_events WHERE count_id = ? AND command_id IS NOT NULL', [id])).map((r) => r.command_id));
       tails.set(id, last ? { seq: last.seq, hash: last.hash, commands } : { seq: 0, hash: GENESIS_HASH, commands });
     }
     return tails;
@@ -338,7 +411,7 @@ async function storedCommands(group: Pending[], tails: Map<number, Tail>, tx: Lo
   const found = new Map<string, StoredEvent[]>();
   const byCount = new Map<number, Set<string>>();
   for (const p of group) {
-    if (p.commandId === null || !tails.get(p.countId)?.commands.has(p.commandId)) continue;
+    if (p.commandId === null || tails.get(p.countId)?.commands?.has(p.commandId) === false) continue;
     const ids = byCount.get(p.countId) ?? new Set<string>();
     ids.add(p.commandId);
     byCount.set(p.countId, ids);

@@ -89,6 +89,13 @@ export interface CountServiceDeps {
   logError?: (message: string, error?: unknown) => void;
   /** After a failed commit, the wait before the count is read back from its log (tests shorten it). */
   reviveAfterMs?: number;
+  /**
+   * With a shared log (several processes): whether a socket of someone manning `station` is in the count's
+   * room on any process, asked before a station is logged as lost (its socket may be on another process).
+   */
+  stationPresentElsewhere?: (countId: number, station: string, state: CountState) => Promise<boolean>;
+  /** With a shared log: tells the other processes that this count's log grew (they fold it in, see appendedElsewhere). */
+  announce?: (countId: number, lastSeq: number) => void;
 }
 
 export class CountService {
@@ -98,16 +105,107 @@ export class CountService {
   private readonly orphanPresence = new Map<number, Map<string, Set<string>>>();
   private readonly now: () => number;
   private closed = false;
+  /** The log is shared with other processes (PostgreSQL): every change is decided under the log's lock. */
+  private readonly shared: boolean;
 
   constructor(private readonly deps: CountServiceDeps) {
     this.now = deps.now ?? Date.now;
+    this.shared = deps.log.shared;
   }
 
-  /** The count as this server holds it, loaded from its log on first use. 404 for another team's or no count. */
-  async get(teamId: number, countId: number): Promise<LiveCount> {
+  /**
+   * The count as this server holds it, loaded from its log on first use. 404 for another team's or no count.
+   * With a shared log, first folds in what other processes appended, so the state served is current.
+   */
+  async get(teamId: number, countId: number, options: { fresh?: boolean } = {}): Promise<LiveCount> {
     const c = await this.load(countId);
     if (!c || c.teamId !== teamId) throw notFound('There is no such count.');
+    if (this.shared && options.fresh !== false) await this.enqueue(c, () => this.refresh(c));
     return c;
+  }
+
+  // ------------------------------------------------ shared log (several processes on PostgreSQL)
+
+  /**
+   * Folds events another process appended (committed, and broadcast to the room by that process) into this
+   * process's copy: the state, the command answers, the clock's timer. Events at or below the known seq are
+   * skipped, so reading the same events twice is harmless.
+   */
+  private foldOthers(c: LiveCount, stored: StoredEvent[]): void {
+    const fresh = stored.filter((e) => e.seq > c.state.lastSeq);
+    if (fresh.length === 0) return;
+    const events = fresh.map(eventDto);
+    c.state = replay(events as unknown as CountEvent[], c.state);
+    c.projected = c.state;
+    fresh.forEach((e, i) => {
+      if (!e.commandId) return;
+      c.commands.set(e.commandId, [...(c.commands.get(e.commandId) ?? []), events[i]!]);
+    });
+    this.schedule(c);
+  }
+
+  /**
+   * Another process appended to a count up to `lastSeq`: if this process holds the count, it folds the events in,
+   * so its clock's timer follows the count (and goes on if the other process stops).
+   */
+  appendedElsewhere(countId: number, lastSeq: number): void {
+    const c = this.counts.get(countId);
+    if (!c || this.closed || lastSeq <= c.state.lastSeq) return;
+    void this.enqueue(c, () => this.refresh(c)).catch((error) => this.deps.logError?.(`count ${countId}: catching up failed`, error));
+  }
+
+  /** Reads what other processes appended since this process last looked (no lock: a plain read). */
+  private async refresh(c: LiveCount): Promise<void> {
+    if (this.counts.get(c.id) !== c) return;
+    this.foldOthers(c, await this.deps.log.read(c.id, { sinceSeq: c.state.lastSeq }));
+  }
+
+  /**
+   * The shared log's one way to change a count: in one transaction holding the count's lock, fold in what other
+   * processes appended, let the clock's due events come first, then `make` decides on that state (throwing
+   * refuses, and nothing is written). Resolves after the commit, once folded and broadcast, with the events
+   * `make` asked for (or, for a commandId already stored, that command's first answer). Call from inside the
+   * count's queue. Slower than the single-process path: each decision waits for its own commit.
+   */
+  private async locked(
+    c: LiveCount,
+    make: (state: CountState, now: number) => readonly EventDraft[],
+    commandId?: string,
+  ): Promise<CountEventDto[]> {
+    let earlier: CountEventDto[] | undefined;
+    const now = this.now();
+    const { stored } = await this.deps.log.exclusive(c.id, c.state.lastSeq, (others) => {
+      this.foldOthers(c, others);
+      earlier = commandId ? c.commands.get(commandId) : undefined;
+      if (earlier) return [];
+      const timed = (drafts: readonly EventDraft[]) => drafts.map((d) => ({ ...d, at: d.at ?? now }) as EventDraft & { at: number });
+      const due = timed(dueEvents(c.state, now));
+      const after = due.length ? replay(stampEvents(c.state.lastSeq, due, now), c.state) : c.state;
+      const drafts = timed(make(after, now));
+      const asLog = (list: (EventDraft & { at: number })[], id: string | null) => ({
+        commandId: id,
+        drafts: list.map((d) => ({ type: d.type, payload: d.payload, actor: d.actor, station: d.station, at: d.at })),
+      });
+      return [asLog(due, null), asLog(drafts, commandId ?? null)];
+    });
+    if (earlier) return earlier;
+    const [dueStored = [], madeStored = []] = stored;
+    const all = [...dueStored, ...madeStored].map(eventDto);
+    if (all.length > 0) {
+      c.state = replay(all as unknown as CountEvent[], c.state);
+      c.projected = c.state;
+      const made = madeStored.map(eventDto);
+      if (commandId && made.length) c.commands.set(commandId, made);
+      this.publish(c, all);
+      this.deps.announce?.(c.id, c.state.lastSeq);
+      try {
+        this.deps.onEvents?.(c, all);
+      } catch (error) {
+        this.deps.logError?.('count event listener failed', error);
+      }
+    }
+    this.schedule(c);
+    return madeStored.map(eventDto);
   }
 
   private async load(countId: number): Promise<LiveCount | null> {
@@ -271,6 +369,11 @@ export class CountService {
     const delay = Math.min(Math.max(0, at - this.now()), 2 ** 31 - 1);
     c.timer = setTimeout(() => {
       c.timer = null;
+      // Shared: the other processes' timers fire too; whoever comes second finds nothing due once caught up.
+      if (this.shared) {
+        void this.enqueue(c, () => this.locked(c, () => [])).catch((error) => this.deps.logError?.(`count ${c.id}: clock events failed`, error));
+        return;
+      }
       void this.enqueue(c, async () => ({ done: this.catchUp(c) }))
         .then((r) => r.done)
         .catch((error) => this.deps.logError?.(`count ${c.id}: clock events failed`, error));
@@ -283,7 +386,25 @@ export class CountService {
    * A retried commandId answers the events of its first run and appends nothing.
    */
   async command(teamId: number, countId: number, actor: CountActor, command: CountCommand & { commandId?: string }): Promise<CountEventDto[]> {
-    const c = await this.get(teamId, countId);
+    const c = await this.get(teamId, countId, { fresh: false });
+    if (this.shared) {
+      const { commandId, ...cmd } = command;
+      return this.enqueue(c, () =>
+        this.locked(
+          c,
+          (state, now) => {
+            const decision = decide(state, cmd as CountCommand, {
+              now,
+              actor: { userId: actor.id, name: actor.name, roles: actor.roles },
+              mannedStations: mannedStations(state, actor.id),
+            });
+            if (!decision.ok) throw new HttpError(decision.status, refusalCode(decision.status), decision.error);
+            return decision.events;
+          },
+          commandId,
+        ),
+      );
+    }
     // The queue only decides and hands over; the answer waits for the commit outside it.
     const committed = await this.enqueue(c, async (): Promise<{ done: Promise<CountEventDto[]> }> => {
       // Dropped after a failed commit while this waited: decide on the count as its log has it.
@@ -324,13 +445,17 @@ export class CountService {
       lostTimers: new Map(),
     };
     this.counts.set(countId, live);
+    if (this.shared) {
+      await this.enqueue(live, () => this.locked(live, () => [created]));
+      return live;
+    }
     await (await this.enqueue(live, async () => ({ done: this.submit(live, [created]) }))).done;
     return live;
   }
 
   /** The server's check of the count's hash chain from the database, with the last hash. */
   async verify(teamId: number, countId: number) {
-    await this.get(teamId, countId);
+    await this.get(teamId, countId, { fresh: false });
     const verdict = await this.deps.log.verify(countId);
     const [last] = (await this.deps.log.read(countId, { sinceSeq: Math.max(0, (verdict.ok ? verdict.count : 0) - 1) })).slice(-1);
     return { ...verdict, lastHash: verdict.ok ? (last?.hash ?? null) : null };
@@ -338,7 +463,7 @@ export class CountService {
 
   /** The events after `sinceSeq`, read from the log (which holds the hashes). */
   async eventsSince(teamId: number, countId: number, sinceSeq = 0): Promise<CountEventDto[]> {
-    await this.get(teamId, countId);
+    await this.get(teamId, countId, { fresh: false });
     return (await this.deps.log.read(countId, { sinceSeq })).map(eventDto);
   }
 
@@ -353,6 +478,11 @@ export class CountService {
       if (row.status === 'scrubbed' || row.status === 'complete') continue;
       const c = await this.load(row.id);
       if (!c) continue;
+      if (this.shared) {
+        const hold = await this.enqueue(c, () => this.locked(c, (state) => restartHoldDrafts(state)));
+        if (hold.length) held.push(c.id);
+        continue;
+      }
       const done = await this.enqueue(c, async () => {
         void this.catchUp(c).catch(() => {});
         const hold = restartHoldDrafts(c.projected);
@@ -370,6 +500,27 @@ export class CountService {
   async connect(c: LiveCount, socketId: string, userId: number): Promise<void> {
     const stations = mannedStations(c.state, userId);
     if (!stations.length) return;
+    if (this.shared) {
+      await this.enqueue(c, async () => {
+        if (this.counts.get(c.id) !== c || hasEnded(c.state)) return;
+        for (const station of stations) {
+          const set = c.present.get(station) ?? new Set<string>();
+          set.add(socketId);
+          c.present.set(station, set);
+          const lost = c.lostTimers.get(station);
+          if (lost) clearTimeout(lost);
+          c.lostTimers.delete(station);
+        }
+        await this.locked(c, (state) =>
+          hasEnded(state)
+            ? []
+            : stations
+                .filter((station) => state.stations[station]?.presence !== 'connected')
+                .map((station) => ({ type: 'station:connected', payload: { station }, actor: null, station }) as EventDraft),
+        );
+      });
+      return;
+    }
     const done = await this.enqueue(c, async (): Promise<unknown> => {
       if (this.counts.get(c.id) !== c) {
         // Dropped after a failed commit while this waited: mark the station on the count as read back.
@@ -413,6 +564,18 @@ export class CountService {
     const timer = setTimeout(() => {
       c.lostTimers.delete(station);
       if ((c.present.get(station)?.size ?? 0) > 0 || this.counts.get(c.id) !== c) return;
+      if (this.shared) {
+        void this.enqueue(c, async () => {
+          // The station's socket may be on another process: only the room across processes can tell.
+          if (await this.deps.stationPresentElsewhere?.(c.id, station, c.state)) return;
+          await this.locked(c, (state) =>
+            (c.present.get(station)?.size ?? 0) > 0 || state.stations[station]?.presence !== 'connected' || hasEnded(state)
+              ? []
+              : [{ type: 'station:lost', payload: { station }, actor: null, station } as EventDraft],
+          );
+        }).catch((error) => this.deps.logError?.(`count ${c.id}: presence failed`, error));
+        return;
+      }
       void this.enqueue(c, async () => {
         if ((c.present.get(station)?.size ?? 0) > 0 || c.projected.stations[station]?.presence !== 'connected' || hasEnded(c.projected)) return;
         await this.submit(c, [{ type: 'station:lost', payload: { station }, actor: null, station } as EventDraft]);

@@ -10,6 +10,7 @@ import * as m0007 from './migrations/0007-count-log';
 import * as m0008 from './migrations/0008-sensor-data';
 import * as m0009 from './migrations/0009-anomalies';
 import * as m0010 from './migrations/0010-notifications';
+import * as m0011 from './migrations/0011-postgres';
 import * as m0013 from './migrations/0013-count-events-no-replace';
 
 export interface MigrationContext {
@@ -29,6 +30,7 @@ const MIGRATIONS = [
   { name: '0008-sensor-data', ...m0008 },
   { name: '0009-anomalies', ...m0009 },
   { name: '0010-notifications', ...m0010 },
+  { name: '0011-postgres', ...m0011 },
   { name: '0013-count-events-no-replace', ...m0013 },
 ];
 

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { User } from '../../server/models';
 import { DEMO, outbox } from '../helpers/api';
-import { startTestApp, waitForMail, type TestApp, type TestClient } from '../helpers/app';
+import { onPostgres, startTestApp, waitForMail, type TestApp, type TestClient } from '../helpers/app';
 import { demoRevision, releasedShortProcedure, releasedTinyProcedure } from '../helpers/counts';
 
 let t: TestApp;
@@ -173,7 +173,8 @@ describe('commands over HTTP (the same path as the socket)', () => {
 });
 
 describe('answers that arrive together', () => {
-  it('are decided in order and committed together, not one disk write each', async () => {
+  // SQLite only: on PostgreSQL each decision is committed on its own under the count's lock (docs/scale-out.md).
+  it.skipIf(onPostgres)('are decided in order and committed together, not one disk write each', async () => {
     const id = await newDemoCount('Run for grouping');
     await command(conductor, id, { type: 'count:start' }).expect(200);
     const stations = ['PROP', 'PAD', 'DATA', 'RANGE', 'SAFE', 'TC'];
@@ -247,7 +248,8 @@ describe('the end of a count', () => {
 });
 
 describe('a commit that fails', () => {
-  it('does not stop the clock: the count is read back from its log and the due events follow at their own instants', async () => {
+  // SQLite only: it fails EventLog.append, which the PostgreSQL path does not use (it decides inside exclusive()).
+  it.skipIf(onPostgres)('does not stop the clock: the count is read back from its log and the due events follow at their own instants', async () => {
     const rev = await releasedTinyProcedure(conductor, safety);
     const id = (await conductor.post('/api/counts', { ...rev, name: 'Failed commit' }).expect(201)).body.id as number;
     const started = await command(conductor, id, { type: 'count:start' }).expect(200);

@@ -1,6 +1,8 @@
+import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import pg from 'pg';
 import request from 'supertest';
 import type { SignInLimits } from '../../server/auth/rate-limit';
 import { startHoldfire, type Holdfire } from '../../server/bootstrap';
@@ -24,15 +26,44 @@ export interface TestClient {
   get(url: string): request.Test;
 }
 
-/** The real server on a temporary SQLite file, with the real local SMTP server. */
+/** The PostgreSQL server of `npm run test:scale` (its DATABASE_URL names the admin database), if any. */
+export const POSTGRES_ADMIN_URL = /^postgres(ql)?:/.test(process.env.DATABASE_URL ?? '') ? process.env.DATABASE_URL! : undefined;
+
+/** Why a SQLite-only test is skipped on PostgreSQL, for describe.skipIf(onPostgres) and the log. */
+export const onPostgres = POSTGRES_ADMIN_URL !== undefined;
+
+async function adminQuery(sql: string): Promise<void> {
+  const client = new pg.Client({ connectionString: POSTGRES_ADMIN_URL });
+  await client.connect();
+  try {
+    await client.query(sql);
+  } finally {
+    await client.end();
+  }
+}
+
+/** A fresh, empty database on the test PostgreSQL server; drop() removes it (and ends its connections). */
+export async function createTestDatabase(): Promise<{ url: string; drop(): Promise<void> }> {
+  const name = `holdfire_t_${randomBytes(6).toString('hex')}`;
+  await adminQuery(`CREATE DATABASE ${name}`);
+  const url = new URL(POSTGRES_ADMIN_URL!);
+  url.pathname = `/${name}`;
+  return { url: url.toString(), drop: () => adminQuery(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`) };
+}
+
+/**
+ * The real server on a temporary SQLite file, with the real local SMTP server. Under `npm run test:scale`
+ * (DATABASE_URL=postgres://...) on a fresh PostgreSQL database instead, dropped at stop().
+ */
 export async function startTestApp(
   options: { seed?: 'demo' | 'none'; env?: Record<string, string>; signInLimits?: SignInLimits } = {},
 ): Promise<TestApp> {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'holdfire-test-'));
+  const database = onPostgres && !options.env?.DATABASE_URL ? await createTestDatabase() : undefined;
   const holdfire = await startHoldfire(
     {
       HOLDFIRE_DATA_DIR: dataDir,
-      DATABASE_URL: `sqlite:${path.join(dataDir, 'holdfire.sqlite')}`,
+      DATABASE_URL: database?.url ?? `sqlite:${path.join(dataDir, 'holdfire.sqlite')}`,
       HOLDFIRE_SEED: options.seed ?? 'demo',
       NODE_ENV: 'test',
       APP_URL: 'http://holdfire.test',
@@ -70,6 +101,7 @@ export async function startTestApp(
     client,
     async stop() {
       await holdfire.shutdown();
+      await database?.drop();
       rmSync(dataDir, { recursive: true, force: true });
     },
   };

@@ -44,6 +44,8 @@ export async function up({ queryInterface: q, sequelize }: MigrationContext): Pr
   // Not unique: one command may yield several events; the event log checks it inside its write transaction.
   await q.addIndex('count_events', ['count_id', 'command_id']);
   // The log is append-only: refuse edits and deletes at the database too (the hash chain still detects them).
+  // These are SQLite's triggers; PostgreSQL gets its own in 0011-postgres.
+  if (sequelize.getDialect() !== 'sqlite') return;
   await sequelize.query(
     `CREATE TRIGGER count_events_no_update BEFORE UPDATE ON count_events BEGIN SELECT RAISE(ABORT, 'count events are append-only'); END;`,
   );
