@@ -189,11 +189,11 @@ export function conductorSocket(url: string, cookie: string, countId: number, n:
       return ack.data!.events;
     },
     /** One poll to every station of the crew; ms from sending poll:open until the n-th poll:answered is in. */
-    async poll(): Promise<number> {
+    async poll(limitMs = POLL_LIMIT_MS): Promise<number> {
       const start = performance.now();
       const done = new Promise<number>((resolve, reject) => (current = { pollId: null, answered: 0, resolve, reject, at: null }));
       await this.command({ type: 'poll:open', question: 'Go for the next bench poll?', timeoutSeconds: 3600 });
-      return (await withLimit(done, POLL_LIMIT_MS, 'holdfire poll')) - start;
+      return (await withLimit(done, limitMs, 'holdfire poll')) - start;
     },
   };
 }

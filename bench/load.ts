@@ -65,6 +65,7 @@ async function stationStats(stack: Stack): Promise<StationStats> {
 const minus = (a: StationStats, b: StationStats): StationStats =>
   Object.fromEntries(Object.keys(a).map((k) => [k, a[k as keyof StationStats] - b[k as keyof StationStats]])) as unknown as StationStats;
 
+const countBy = (xs: number[]) => xs.reduce<Record<number, number>>((acc, x) => ((acc[x] = (acc[x] ?? 0) + 1), acc), {});
 const mb = (bytes: number) => f1(bytes / 2 ** 20);
 
 // ---------------------------------------------------------------- idle-500
@@ -142,6 +143,7 @@ async function pollsAndStorm(stack: Stack) {
   const conductorBefore = { lost: tc.seqs.lost, duplicated: tc.seqs.duplicated, missing: tc.missingAnswers() };
   const dropped = stack.stationProcs.map((c) => next<FromStations, 'dropped'>(c, 'dropped'));
   const rejoined = stack.stationProcs.map((c) => next<FromStations, 'rejoined'>(c, 'rejoined', 180_000));
+  rejoined.forEach((p) => p.catch(() => {})); // awaited below; an early failure must not go unhandled meanwhile
   for (const c of stack.stationProcs) c.send({ type: 'storm' });
   const dropAt = Math.min(...(await Promise.all(dropped)).map((m) => m.at));
   // Meanwhile the conductor calls a hold and opens a poll: the stations learn of both from their catch-up or
@@ -149,21 +151,40 @@ async function pollsAndStorm(stack: Stack) {
   const held = await tc.command({ type: 'hold:call', category: 'range', reason: 'Bench: range check while the stations reconnect' });
   const holdId = (held.find((e) => e.type === 'hold:called')?.payload as { holdId?: string } | undefined)?.holdId;
   if (!holdId) throw new Error(`hold:call gave no hold: ${JSON.stringify(held.map((e) => e.type))}`);
-  const pollRtt = await tc.poll();
+  const reports = async (targetSeq: number) =>
+    (
+      await Promise.all(
+        stack.stationProcs.map((c) => {
+          const answer = next<FromStations, 'storm-report'>(c, 'storm-report');
+          c.send({ type: 'storm-report', targetSeq });
+          return answer;
+        }),
+      )
+    ).map((m) => m.report);
+  let pollRtt: number;
+  let failed: string[];
+  try {
+    pollRtt = await tc.poll(120_000);
+    failed = (await withLimit(Promise.all(rejoined), 180_000, 'stations rejoining')).flatMap((m) => m.failed);
+  } catch (error) {
+    // Say where the stations are before giving up.
+    const r = await reports(tc.pollOpenedSeq());
+    const s2 = minus(await stationStats(stack), statsBefore);
+    console.error(
+      `load-reconnect failed: ${(error as Error).message}; poll:opened seq ${tc.pollOpenedSeq()}, conductor at seq ${tc.seqs.last};` +
+        ` rejoined ${r.flatMap((x) => x.rejoinMs).filter((t) => !Number.isNaN(t)).length} of ${n}; with the poll ${r.flatMap((x) => x.caughtUpMs).filter((t) => t !== null).length};` +
+        ` answered ${s2.answered}, refused ${s2.refused}, lost ${s2.lost}, duplicated ${s2.duplicated}; station seqs ${JSON.stringify(countBy(r.flatMap((x) => x.lastSeqs)))}`,
+    );
+    throw error;
+  }
   const targetSeq = tc.pollOpenedSeq();
-  await withLimit(Promise.all(rejoined), 180_000, 'stations rejoining');
   await tc.command({ type: 'hold:clear', holdId });
   await tc.command({ type: 'count:resume' });
   // Every station must end with every event of the log; wait until they are all at the conductor's last seq.
-  const reports = async () => (await Promise.all(stack.stationProcs.map((c) => {
-    const answer = next<FromStations, 'storm-report'>(c, 'storm-report');
-    c.send({ type: 'storm-report', targetSeq });
-    return answer;
-  }))).map((m) => m.report);
-  let report: StormReport[] = await reports();
+  let report: StormReport[] = await reports(targetSeq);
   for (let waited = 0; waited < 30_000 && report.some((r) => r.lastSeqs.some((q) => q !== tc.seqs.last)); waited += 200) {
     await sleep(200);
-    report = await reports();
+    report = await reports(targetSeq);
   }
   const caught = report.flatMap((r) => r.caughtUpMs);
   const times = caught.filter((t): t is number => t !== null).sort((a, b) => a - b);
@@ -171,14 +192,16 @@ async function pollsAndStorm(stack: Stack) {
   const catchUp = report.flatMap((r) => r.catchUpEvents);
   const behind = report.flatMap((r) => r.lastSeqs).reduce((a, q) => a + Math.max(0, tc.seqs.last - q), 0);
   const st = minus(await stationStats(stack), statsBefore);
-  const stormLost = st.lost + st.refused + (n - st.answered) + (caught.length - times.length) + behind + (tc.seqs.lost - conductorBefore.lost) + (tc.missingAnswers() - conductorBefore.missing);
-  const stormDuplicated = st.duplicated + (tc.seqs.duplicated - conductorBefore.duplicated);
+  const stormLost = failed.length + st.lost + st.refused + (n - st.answered) + (caught.length - times.length) + behind + (tc.seqs.lost - conductorBefore.lost) + (tc.missingAnswers() - conductorBefore.missing);
+  const conductorDuplicated = tc.seqs.duplicated - conductorBefore.duplicated;
+  const stormDuplicated = st.duplicated + conductorDuplicated;
   const allMs = times.length ? times[times.length - 1]! : NaN;
   // The drop times of the two processes differ by the IPC; each station's times count from its own process's drop.
   console.log(
     `load-reconnect N=${n} all_caught_up_ms=${f1(allMs)} station_median_ms=${f1(median(times))} station_p99_ms=${f1(quantile(times, 0.99))}` +
       ` station_max_ms=${f1(allMs)} lost=${stormLost} duplicated=${stormDuplicated}` +
       ` rejoin_median_ms=${f1(median(rejoin))} rejoin_max_ms=${f1(rejoin[rejoin.length - 1]!)} catch_up_events_median=${median(catchUp)}` +
+      ` join_answer_kib_median=${f1(median(report.flatMap((r) => r.replyBytes)) / 1024)} duplicated_conductor=${conductorDuplicated}` +
       ` overlap_dropped=${report.reduce((a, r) => a + r.overlap, 0)} chain_breaks=${report.reduce((a, r) => a + r.chainBreaks, 0)}` +
       ` events=${tc.seqs.last - seqBefore} poll_during_storm_ms=${f1(pollRtt)} since_drop_ms=${f1(performance.timeOrigin + performance.now() - dropAt)}`,
   );

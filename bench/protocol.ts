@@ -94,9 +94,11 @@ export interface StormReport {
   rejoinMs: number[];
   /** Per station: the events its rejoin's catch-up carried. */
   catchUpEvents: number[];
+  /** Per station: the size of its join's answer (JSON: the catch-up and the count's state), bytes. */
+  replyBytes: number[];
   /** Per station: the last seq it has applied (all must equal the log's last). */
   lastSeqs: number[];
-  /** Broadcasts that arrived while the join was pending and were also in its catch-up: dropped, as the client does. */
+  /** Broadcasts of events the rejoin's catch-up also carried (before or after its answer): dropped, as the client does. */
   overlap: number;
   /** Stations whose events did not chain (an event's prevHash is not the hash of the one before). */
   chainBreaks: number;
@@ -106,7 +108,8 @@ export type FromStations =
   | { type: 'ready'; what: 'holdfire' | 'ws' }
   | { type: 'stats'; stats: StationStats }
   | { type: 'dropped'; at: number }
-  | { type: 'rejoined' }
+  /** `failed`: why the stations that could not reconnect or rejoin did not. */
+  | { type: 'rejoined'; failed: string[] }
   | { type: 'storm-report'; report: StormReport }
   | { type: 'closed' }
   | { type: 'error'; message: string };

@@ -30,6 +30,10 @@ interface Storm {
   appliedAt: Map<number, number>;
   rejoinedAt: number | null;
   catchUp: number;
+  /** The seqs the rejoin's catch-up carried: their broadcasts may still come (before or after the answer). */
+  catchUpSeqs: Set<number>;
+  /** Size of the join's answer (JSON), bytes. */
+  replyBytes: number;
 }
 
 interface BenchStationSocket {
@@ -47,12 +51,15 @@ interface BenchStationSocket {
 
 const stations: BenchStationSocket[] = [];
 let overlap = 0;
+let closing = false;
 
 /** One event in order: seqs and the hash chain are checked, and a poll asking this station is answered GO. */
 function apply(st: BenchStationSocket, e: CountEventDto) {
   if (st.lastSeq >= 0) {
     if (e.seq <= st.lastSeq) {
-      stats.duplicated += 1;
+      // A broadcast of an event the rejoin's catch-up carried is the overlap the join allows: the client drops it.
+      if (st.joined && st.storm?.catchUpSeqs.has(e.seq)) overlap += 1;
+      else stats.duplicated += 1;
       return;
     }
     if (e.seq > st.lastSeq + 1) stats.lost += e.seq - st.lastSeq - 1;
@@ -89,6 +96,9 @@ async function station(url: string, countId: number, code: string, cookie: strin
   stations.push(st);
   // On the first join seqs are checked on the broadcasts only: the join's catch-up may overlap the first broadcasts
   // by design, and these stations do not need the history.
+  socket.on('disconnect', (reason, description) => {
+    if (st.joined && !closing) console.error(`[stations] ${code} disconnected: ${reason} ${description ? JSON.stringify(description, ['message', 'description', 'context']) : ''}`);
+  });
   socket.on('count:events', (list: CountEventDto[]) => {
     if (!st.joined) st.buffer.push(...list);
     else list.forEach((e) => apply(st, e));
@@ -102,14 +112,23 @@ async function station(url: string, countId: number, code: string, cookie: strin
 async function rejoin(st: BenchStationSocket): Promise<void> {
   const up = connected(st.socket);
   st.socket.connect();
-  await up;
-  const reply = (await st.socket.timeout(60_000).emitWithAck('count:join', { countId: st.countId, sinceSeq: st.lastSeq })) as Ack;
+  await up.catch((error: Error) => {
+    throw new Error(`${st.code} could not reconnect: ${error.message}`);
+  });
+  const reply = (await st.socket
+    .timeout(60_000)
+    .emitWithAck('count:join', { countId: st.countId, sinceSeq: st.lastSeq })
+    .catch((error: Error) => {
+      throw new Error(`${st.code} rejoin: ${error.message} (${st.socket.connected ? 'connected' : 'not connected'})`);
+    })) as Ack;
   if (reply.error) throw new Error(`${st.code} could not rejoin: ${reply.error}`);
   const storm = st.storm!;
   storm.rejoinedAt = wallNow();
   storm.catchUp = reply.data!.events.length;
+  storm.replyBytes = JSON.stringify(reply).length;
   // The catch-up comes from the log after `sinceSeq`: anything at or below it there would be a double.
   for (const e of reply.data!.events) apply(st, e);
+  for (const e of reply.data!.events) storm.catchUpSeqs.add(e.seq);
   const waiting = st.buffer.splice(0).sort((a, b) => a.seq - b.seq);
   st.joined = true;
   for (const e of waiting) {
@@ -126,7 +145,7 @@ async function storm(): Promise<void> {
       new Promise<void>((resolve) => {
         st.joined = false;
         st.buffer = [];
-        st.storm = { at, appliedAt: new Map(), rejoinedAt: null, catchUp: 0 };
+        st.storm = { at, appliedAt: new Map(), rejoinedAt: null, catchUp: 0, catchUpSeqs: new Set(), replyBytes: 0 };
         st.chainBroken = false;
         st.socket.once('disconnect', () => resolve());
         // The connection closes under the socket, as when the network goes: the server sees a transport close.
@@ -135,8 +154,17 @@ async function storm(): Promise<void> {
   );
   await Promise.all(gone);
   send({ type: 'dropped', at });
-  await Promise.all(stations.map(rejoin));
-  send({ type: 'rejoined' });
+  // A station that cannot come back is reported, not fatal: the others' figures still count.
+  const failed: string[] = [];
+  await Promise.all(
+    stations.map((st) =>
+      rejoin(st).catch((error: Error) => {
+        failed.push(error.message);
+        console.error(`[stations] ${error.message}`);
+      }),
+    ),
+  );
+  send({ type: 'rejoined', failed });
 }
 
 function stormReport(targetSeq: number): StormReport {
@@ -147,6 +175,7 @@ function stormReport(targetSeq: number): StormReport {
     }),
     rejoinMs: stations.map((st) => (st.storm?.rejoinedAt ?? NaN) - (st.storm?.at ?? NaN)),
     catchUpEvents: stations.map((st) => st.storm?.catchUp ?? 0),
+    replyBytes: stations.map((st) => st.storm?.replyBytes ?? 0),
     lastSeqs: stations.map((st) => st.lastSeq),
     overlap,
     chainBreaks: stations.filter((st) => st.chainBroken).length,
@@ -169,7 +198,9 @@ function wsClient(wsUrl: string, index: number): Promise<void> {
 }
 
 async function closeAll(): Promise<void> {
+  closing = true;
   for (const st of stations.splice(0)) st.socket.disconnect();
+  closing = false;
   await Promise.all(
     wsClients.splice(0).map(
       (s) =>
