@@ -192,7 +192,8 @@ async function pollsAndStorm(stack: Stack) {
   const catchUp = report.flatMap((r) => r.catchUpEvents);
   const behind = report.flatMap((r) => r.lastSeqs).reduce((a, q) => a + Math.max(0, tc.seqs.last - q), 0);
   const st = minus(await stationStats(stack), statsBefore);
-  const stormLost = failed.length + st.lost + st.refused + (n - st.answered) + (caught.length - times.length) + behind + (tc.seqs.lost - conductorBefore.lost) + (tc.missingAnswers() - conductorBefore.missing);
+  // Each poll:answer without a GO acknowledgement counts once (refused or unacknowledged are both in n - answered).
+  const stormLost = failed.length + st.lost + (n - st.answered) + (caught.length - times.length) + behind + (tc.seqs.lost - conductorBefore.lost) + (tc.missingAnswers() - conductorBefore.missing);
   const conductorDuplicated = tc.seqs.duplicated - conductorBefore.duplicated;
   const stormDuplicated = st.duplicated + conductorDuplicated;
   const allMs = times.length ? times[times.length - 1]! : NaN;
@@ -202,6 +203,7 @@ async function pollsAndStorm(stack: Stack) {
       ` station_max_ms=${f1(allMs)} lost=${stormLost} duplicated=${stormDuplicated}` +
       ` rejoin_median_ms=${f1(median(rejoin))} rejoin_max_ms=${f1(rejoin[rejoin.length - 1]!)} catch_up_events_median=${median(catchUp)}` +
       ` join_answer_kib_median=${f1(median(report.flatMap((r) => r.replyBytes)) / 1024)} duplicated_conductor=${conductorDuplicated}` +
+      ` lost_parts=seq:${st.lost},unanswered:${n - st.answered}(refused_or_no_ack:${st.refused}),failed:${failed.length},never:${caught.length - times.length},behind:${behind}` +
       ` overlap_dropped=${report.reduce((a, r) => a + r.overlap, 0)} chain_breaks=${report.reduce((a, r) => a + r.chainBreaks, 0)}` +
       ` events=${tc.seqs.last - seqBefore} poll_during_storm_ms=${f1(pollRtt)} since_drop_ms=${f1(performance.timeOrigin + performance.now() - dropAt)}`,
   );

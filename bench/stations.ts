@@ -80,7 +80,10 @@ function apply(st: BenchStationSocket, e: CountEventDto) {
         console.error(`[stations] ${st.code}: ${ack.error}`);
       } else stats.answered += 1;
     })
-    .catch(() => (stats.refused += 1));
+    .catch((error: Error) => {
+      stats.refused += 1;
+      console.error(`[stations] ${st.code}: no answer to poll:answer (${error.message})`);
+    });
 }
 
 function connected(socket: Socket): Promise<void> {
