@@ -11,7 +11,7 @@ import { WebSocketServer, type WebSocket } from 'ws';
 import { hashPassword } from '../server/auth/passwords';
 import { startHoldfire } from '../server/bootstrap';
 import { Count, CrewAssignment, CrewPlan, Station, Team, User } from '../server/models';
-import { STATION_PASSWORD, type BenchStation, type FromServer, type ServerTimings, type ToServer } from './protocol';
+import { STATION_PASSWORD, type BenchStation, type FromServer, type ServerMemory, type ServerTimings, type ToServer } from './protocol';
 
 const send = (m: FromServer) => process.send!(m);
 const dataDir = process.env.BENCH_DATA_DIR;
@@ -137,12 +137,12 @@ async function setup(n: number): Promise<FromServer> {
   return { type: 'setup', teamId: team.id, stations, password: STATION_PASSWORD };
 }
 
-/** A crew plan for the procedure with the first `n` bench stations, each manned by its own operator. */
-async function crew(procedureId: number, n: number): Promise<FromServer> {
+/** A crew plan for the procedure with `n` bench stations after the first `from`, each manned by its own operator. */
+async function crew(procedureId: number, n: number, from: number): Promise<FromServer> {
   const team = await Team.findOne({ order: [['id', 'ASC']] });
   const plan = await CrewPlan.create({ teamId: team!.id, name: `Bench crew of ${n}`, procedureId, testDate: null });
   const stations = await Station.findAll({ where: { teamId: team!.id }, order: [['code', 'ASC']] });
-  const bench = stations.filter((s) => /^B\d{3}$/.test(s.code)).slice(0, n);
+  const bench = stations.filter((s) => /^B\d{3}$/.test(s.code)).slice(from, from + n);
   const users = await User.findAll({ where: { teamId: team!.id } });
   const byEmail = new Map(users.map((u) => [u.email, u]));
   await CrewAssignment.bulkCreate(
@@ -156,11 +156,26 @@ function timings(): ServerTimings {
   return { ...t, cpuMicros: cpu.user + cpu.system, rssBytes: process.memoryUsage().rss, commits: log.commits };
 }
 
+/**
+ * Memory after collecting garbage (the process runs with --expose-gc), so it shows what is held: five full
+ * collections 300 ms apart, which also gives the heap time to hand freed pages back before RSS is read.
+ */
+async function memory(): Promise<ServerMemory> {
+  const gc = (globalThis as { gc?: () => void }).gc;
+  for (let i = 0; i < 5; i++) {
+    gc?.();
+    await new Promise((r) => setTimeout(r, 300));
+  }
+  const m = process.memoryUsage();
+  return { rssBytes: m.rss, heapUsedBytes: m.heapUsed, externalBytes: m.external, collected: Boolean(gc) };
+}
+
 process.on('message', (m: ToServer) => {
   void (async () => {
     try {
       if (m.type === 'setup') send(await setup(m.stations));
-      else if (m.type === 'crew') send(await crew(m.procedureId, m.stations));
+      else if (m.type === 'crew') send(await crew(m.procedureId, m.stations, m.from ?? 0));
+      else if (m.type === 'memory') send({ type: 'memory', memory: await memory() });
       else if (m.type === 'timings') send({ type: 'timings', timings: timings() });
       else if (m.type === 'stop') {
         for (const s of wss.clients) s.terminate();
