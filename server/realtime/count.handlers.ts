@@ -44,8 +44,12 @@ export function registerCountHandlers(_io: HoldfireServer, socket: HoldfireSocke
       const c = await counts.get(u.teamId, parsed.data.countId);
       await socket.join(countRoom(c.id));
       joined.add(c.id);
-      const events = await counts.eventsSince(u.teamId, c.id, parsed.data.sinceSeq);
-      ack({ data: { events, state: stateDto(c.state, Date.now()) } });
+      const since = parsed.data.sinceSeq;
+      const events = await counts.eventsSince(u.teamId, c.id, since);
+      // The state only on a first join, or when events were committed after the read: a rejoin's catch-up is then
+      // a few events, not the whole state (which holds every closed poll's answers and grows with the count).
+      const reached = events.at(-1)?.seq ?? since;
+      ack({ data: { events, state: since === 0 || reached < c.state.lastSeq ? stateDto(c.state, Date.now()) : null } });
       await counts.connect(c, socket.id, u.id);
     } catch (error) {
       answerError(ack, error, log);

@@ -16,7 +16,8 @@ export interface ClockSample {
 export interface ClientToServerEvents {
   'clock:sync': (payload: { clientSentAt: number }, ack: Ack<ClockSample>) => void;
   /** Watch a count: the events after `sinceSeq` and the state they fold to; then `count:event` facts follow. */
-  'count:join': (payload: { countId: number; sinceSeq: number }, ack: Ack<{ events: CountEventDto[]; state: CountStateDto }>) => void;
+  /** `state` on a first join (sinceSeq 0), or when the events sent stop short of it; null on a rejoin that the events bring up to date. */
+  'count:join': (payload: { countId: number; sinceSeq: number }, ack: Ack<{ events: CountEventDto[]; state: CountStateDto | null }>) => void;
   'count:leave': (payload: { countId: number }) => void;
   /** The events the command appended, or the refusal in words. */
   'count:command': (payload: { countId: number; command: CountCommandInput }, ack: Ack<{ events: CountEventDto[] }>) => void;

@@ -126,6 +126,31 @@ describe('polls over the socket', () => {
   });
 });
 
+describe('joining again', () => {
+  it('a rejoin is answered with the events after its seq and no state; a first join also gets the whole state', async () => {
+    const { id, tc, prop } = await startedCount();
+    for (let k = 0; k < 3; k += 1) {
+      const opened = await send(tc.socket, id, { type: 'poll:open', stations: ['PROP'], timeoutSeconds: 120 });
+      const pollId = opened.data!.events[0]!.payload.pollId as string;
+      const answered = await send(prop.socket, id, { type: 'poll:answer', pollId, station: 'PROP', answer: 'go' });
+      expect(answered.data?.events.map((e) => e.type)).toEqual(['poll:answered', 'poll:closed']);
+    }
+    // An auditor watches: joining appends no presence event.
+    const auditor = await person(DEMO.auditor);
+    const first = await auditor.socket.timeout(5000).emitWithAck('count:join', { countId: id, sinceSeq: 0 });
+    const last = first.data.state.lastSeq as number;
+    expect(first.data.events.at(-1).seq).toBe(last);
+    // The whole state carries every closed poll with its answers: what a rejoin is spared.
+    expect(first.data.state.polls).toHaveLength(3);
+
+    const rejoin = await auditor.socket.timeout(5000).emitWithAck('count:join', { countId: id, sinceSeq: last - 2 });
+    expect(rejoin.data.events.map((e: { seq: number }) => e.seq)).toEqual([last - 1, last]);
+    expect(rejoin.data.state).toBeNull();
+    const upToDate = await auditor.socket.timeout(5000).emitWithAck('count:join', { countId: id, sinceSeq: last });
+    expect(upToDate.data).toEqual({ events: [], state: null });
+  });
+});
+
 describe('holds and presence', () => {
   it('a station’s hold stops the clock for everyone; the clear and the resume reach everyone', async () => {
     const { id, tc, prop, pad } = await startedCount();

@@ -162,7 +162,7 @@ export function useLiveCount(countId: number, initial: CountState | undefined) {
       const buffered = bufferRef.current;
       bufferRef.current = [];
       fold([...reply.data.events, ...buffered] as CountEvent[]);
-      if (stateRef.current && stateRef.current.lastSeq < reply.data.state.lastSeq) {
+      if (reply.data.state && stateRef.current && stateRef.current.lastSeq < reply.data.state.lastSeq) {
         // The server's state is ahead of the events it sent: trust it (the log misses the difference).
         stateRef.current = reply.data.state;
         setState(reply.data.state);
