@@ -157,4 +157,13 @@ describe('count times on the sensor page', () => {
     expect(formatT(-4739)).toBe('T-1:18:59');
     expect(formatT(95.6)).toBe('T+1:36');
   });
+
+  it('print readings near zero in plain decimals down to half a thousandth, smaller ones in e-notation', async () => {
+    const { formatValue } = await import('../../src/features/sensors/components/format');
+    expect(formatValue(-0.002, 'kN')).toBe('-0.002 kN');
+    expect(formatValue(0.004, '')).toBe('0.004');
+    expect(formatValue(0.00002, 'bar')).toBe('2.00e-5 bar');
+    expect(formatValue(27.3148, 'bar')).toBe('27.31 bar');
+    expect(formatValue(0, 'bar')).toBe('0.000 bar');
+  });
 });

@@ -11,10 +11,10 @@ export function formatT(seconds: number): string {
   return `T${seconds < 0 ? '-' : '+'}${Math.abs(seconds).toFixed(2)} s`;
 }
 
-/** A reading with a sensible number of digits: 27.3148 -> "27.31", 0.004 -> "0.004". */
+/** A reading with a sensible number of digits: 27.3148 -> "27.31", 0.004 -> "0.004", 0.00002 -> "2.00e-5". */
 export function formatValue(value: number, unit: string): string {
   const abs = Math.abs(value);
-  const text = abs !== 0 && (abs < 0.01 || abs >= 1e6) ? value.toExponential(2) : abs < 1 ? value.toFixed(3) : value.toFixed(2);
+  const text = abs !== 0 && (abs < 0.0005 || abs >= 1e6) ? value.toExponential(2) : abs < 1 ? value.toFixed(3) : value.toFixed(2);
   return unit ? `${text} ${unit}` : text;
 }
 
