@@ -74,6 +74,10 @@ function overlayPlugin(timeline: SensorTimeline, series: PlotSeries[]): uPlot.Pl
           ctx.fillStyle = c.danger;
           ctx.lineWidth = 1.5 * px;
           ctx.setLineDash([6 * px, 4 * px]);
+          // Labels already written, so two limits close together do not print over each other: a label that would
+          // meet one moves right along its line, past it.
+          const placed: { y: number; x0: number; x1: number }[] = [];
+          const lineHeight = 14 * px;
           for (const s of series) {
             for (const [value, word] of [
               [s.low, 'low'],
@@ -86,7 +90,20 @@ function overlayPlugin(timeline: SensorTimeline, series: PlotSeries[]): uPlot.Pl
               ctx.moveTo(bbox.left, y);
               ctx.lineTo(bbox.left + bbox.width, y);
               ctx.stroke();
-              ctx.fillText(`${s.label} ${word} ${value} ${s.unit}`.trim(), bbox.left + 4 * px, y + 2 * px);
+              const text = `${s.label} ${word} ${value} ${s.unit}`.trim();
+              const width = ctx.measureText(text).width;
+              let x = bbox.left + 4 * px;
+              for (let moved = true; moved; ) {
+                moved = false;
+                for (const p of placed) {
+                  if (Math.abs(p.y - y) < lineHeight && x < p.x1 && x + width > p.x0) {
+                    x = p.x1 + 12 * px;
+                    moved = true;
+                  }
+                }
+              }
+              placed.push({ y, x0: x, x1: x + width });
+              ctx.fillText(text, x, y + 2 * px);
             }
           }
           // Redline readings from the count log: a dotted line and a diamond at the top.
