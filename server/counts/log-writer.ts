@@ -2,7 +2,7 @@ import pg from 'pg';
 import sqlite3 from 'sqlite3';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { canonicalJson } from '../../src/domain/count/chain';
-import { ADVISORY_LOCK_CLASS, BUSY_TIMEOUT_MS } from '../db';
+import { ADVISORY_LOCK_CLASS, BUSY_TIMEOUT_MS, pgConnectionConfig } from '../db';
 
 /** The columns of count_events the log writes, in the order of INSERT_SQL's values. */
 const INSERT_COLUMNS = 'count_id, seq, type, payload, actor_user_id, actor_name, station, at, command_id, prev_hash, hash';
@@ -280,15 +280,7 @@ export class PostgresLogWriter implements LogWriter {
 
   /** The connection of a Sequelize instance on PostgreSQL. */
   static forSequelize(sequelize: Sequelize): PostgresLogWriter {
-    const c = sequelize.config;
-    return new PostgresLogWriter({
-      host: c.host,
-      port: c.port === undefined ? undefined : Number(c.port),
-      database: c.database,
-      user: c.username,
-      password: c.password ?? undefined,
-      ...(c.ssl ? { ssl: c.ssl as pg.PoolConfig['ssl'] } : {}),
-    });
+    return new PostgresLogWriter(pgConnectionConfig(sequelize));
   }
 
   async transaction(work: (tx: LogTransaction) => Promise<void>): Promise<void> {

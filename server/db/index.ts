@@ -81,6 +81,19 @@ const WRITE_LOCK_KEY = 0;
 /** The second key of the start-up lock (migrations and seed); negative, so never a count id. */
 const STARTUP_LOCK_KEY = -1;
 
+/** The connection settings of a Sequelize instance on PostgreSQL, for a pg client or pool of our own. */
+export function pgConnectionConfig(sequelize: Sequelize): pg.ClientConfig {
+  const c = sequelize.config;
+  return {
+    host: c.host,
+    port: c.port === undefined ? undefined : Number(c.port),
+    database: c.database,
+    user: c.username,
+    password: c.password ?? undefined,
+    ...(c.ssl ? { ssl: c.ssl as pg.ClientConfig['ssl'] } : {}),
+  };
+}
+
 /**
  * Runs `work` (migrations, the demo seed) holding a session-level advisory lock on a connection of its own, so
  * several processes started at once on one PostgreSQL do it one after the other: umzug has no lock of its own.
@@ -88,15 +101,7 @@ const STARTUP_LOCK_KEY = -1;
  */
 export async function withStartupLock(sequelize: Sequelize, work: () => Promise<void>): Promise<void> {
   if (sequelize.getDialect() !== 'postgres') return work();
-  const c = sequelize.config;
-  const client = new pg.Client({
-    host: c.host,
-    port: c.port === undefined ? undefined : Number(c.port),
-    database: c.database,
-    user: c.username,
-    password: c.password ?? undefined,
-    ...(c.ssl ? { ssl: c.ssl as pg.ClientConfig['ssl'] } : {}),
-  });
+  const client = new pg.Client(pgConnectionConfig(sequelize));
   await client.connect();
   try {
     await client.query('SELECT pg_advisory_lock($1, $2)', [ADVISORY_LOCK_CLASS, STARTUP_LOCK_KEY]);

@@ -10,6 +10,7 @@ import { User } from '../models';
 import { parseSensorCsv } from '../sensors/parse';
 import { saveSensorDataset } from '../sensors/store';
 import type { AcceptedFile, UploadStore } from '../uploads';
+import { seededRandom } from '../../src/domain/seeded-random';
 
 export interface DemoSensorInput {
   uploads: UploadStore;
@@ -33,16 +34,10 @@ export const KESTREL_LIMITS = {
   fuel_tank_pressure: { high: 27 },
 } as const;
 
-/** A small seeded generator (mulberry32), so the "noise" is the same on every seed run. */
+/** Noise in [-0.5, 0.5) from a seeded generator, so the "noise" is the same on every seed run. */
 export function seededNoise(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296 - 0.5;
-  };
+  const random = seededRandom(seed);
+  return () => random() - 0.5;
 }
 
 const smooth = (x: number) => (x <= 0 ? 0 : x >= 1 ? 1 : x * x * (3 - 2 * x));

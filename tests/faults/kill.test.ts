@@ -13,7 +13,7 @@ import { sha256Hex } from '../../server/counts/log';
 import { DEMO } from '../helpers/api';
 import { connected, openSocket } from '../helpers/counts';
 import { bundleServer, freePort, killServer, signIn, startServer, type ServerProcess } from '../helpers/server-process';
-import { seededRandom } from './random';
+import { seededRandom } from '../../src/domain/seeded-random';
 
 /**
  * The server process is killed with SIGKILL at a random moment of a scripted count, again and again, and started

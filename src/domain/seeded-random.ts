@@ -1,6 +1,6 @@
 /**
- * A small seeded generator (mulberry32, public domain, by Tommy Ettinger) so a fault run can be repeated from
- * the seed it prints. Returns numbers in [0, 1).
+ * A small seeded generator (mulberry32, public domain, by Tommy Ettinger) for runs that must come out the same from a seed
+ * (the demo's recorded noise, the fault suite's kill points). Returns numbers in [0, 1).
  */
 export function seededRandom(seed: number): () => number {
   let a = seed >>> 0;
