@@ -56,6 +56,8 @@ interface LiveCount {
   /** commandId -> the events that command appended, so a retry gets the first answer. */
   commands: Map<string, CountEventDto[]>;
   timer: NodeJS.Timeout | null;
+  /** The instant the timer is set for. */
+  timerAt?: number | null;
   /** The tail of this count's work queue. */
   chain: Promise<unknown>;
   /** Open sockets per station code (socket ids), for presence. */
@@ -64,6 +66,20 @@ interface LiveCount {
 }
 
 export const countRoom = (countId: number) => `count:${countId}`;
+
+/**
+ * The clock's next moment per state object (states are never changed in place): a command asks whether anything
+ * is due before deciding, and the timer is re-armed after it, on the same projected state.
+ */
+const nextDueCache = new WeakMap<CountState, number | null>();
+function nextDueOf(state: CountState): number | null {
+  let at = nextDueCache.get(state);
+  if (at === undefined) {
+    at = nextDueAt(state);
+    nextDueCache.set(state, at);
+  }
+  return at;
+}
 
 export function eventDto(e: StoredEvent): CountEventDto {
   return {
@@ -356,25 +372,37 @@ export class CountService {
 
   /** The clock's own events up to now (steps reached, built-in holds, poll time-outs, T-0). */
   private catchUp(c: LiveCount): Promise<CountEventDto[]> {
-    return this.submit(c, dueEvents(c.projected, this.now()));
+    const now = this.now();
+    const next = nextDueOf(c.projected);
+    if (next === null || next > now) return Promise.resolve([]);
+    return this.submit(c, dueEvents(c.projected, now));
   }
 
   private schedule(c: LiveCount): void {
+    const at = this.closed || this.counts.get(c.id) !== c ? null : nextDueOf(c.projected);
+    // Most commands (an answer, a reading) leave the next moment where it was: keep the timer already set.
+    if (at !== null && c.timer && c.timerAt === at) return;
     if (c.timer) clearTimeout(c.timer);
     c.timer = null;
-    if (this.closed || this.counts.get(c.id) !== c) return;
-    const at = nextDueAt(c.projected);
+    c.timerAt = null;
     if (at === null) return;
+    c.timerAt = at;
     // setTimeout holds at most about 24.8 days; a count's next moment is never that far, but stay safe.
     const delay = Math.min(Math.max(0, at - this.now()), 2 ** 31 - 1);
     c.timer = setTimeout(() => {
       c.timer = null;
+      c.timerAt = null;
       // Shared: the other processes' timers fire too; whoever comes second finds nothing due once caught up.
       if (this.shared) {
         void this.enqueue(c, () => this.locked(c, () => [])).catch((error) => this.deps.logError?.(`count ${c.id}: clock events failed`, error));
         return;
       }
-      void this.enqueue(c, async () => ({ done: this.catchUp(c) }))
+      void this.enqueue(c, async () => {
+        const done = this.catchUp(c);
+        // A timer that fired a moment early found nothing due: set it again (after events, submit already has).
+        this.schedule(c);
+        return { done };
+      })
         .then((r) => r.done)
         .catch((error) => this.deps.logError?.(`count ${c.id}: clock events failed`, error));
     }, delay);
