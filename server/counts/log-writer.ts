@@ -24,6 +24,8 @@ export interface EventRow {
   commandId: string | null;
   prevHash: string;
   hash: string;
+  /** canonicalJson(payload), when the caller has written it already. */
+  payloadJson?: string;
 }
 
 /** What the event log may do inside its one write transaction. */
@@ -61,7 +63,7 @@ function values(row: EventRow): unknown[] {
     row.countId,
     row.seq,
     row.type,
-    canonicalJson(row.payload),
+    row.payloadJson ?? canonicalJson(row.payload),
     row.actor?.userId ?? null,
     row.actor?.name ?? null,
     row.station,

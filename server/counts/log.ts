@@ -2,19 +2,23 @@ import { createHash } from 'node:crypto';
 import { Op, type Sequelize } from 'sequelize';
 import {
   canonicalJson,
-  eventHash,
   GENESIS_HASH,
+  hashedText,
   verifyChain,
   type ChainedEvent,
   type ChainVerdict,
   type EventActor,
 } from '../../src/domain/count/chain';
 import { CountEvent } from '../models/count-event.model';
-import { PostgresLogWriter, SequelizeLogWriter, SqliteLogWriter, sqliteFile, type LogTransaction, type LogWriter } from './log-writer';
+import { PostgresLogWriter, SequelizeLogWriter, SqliteLogWriter, sqliteFile, type EventRow, type LogTransaction, type LogWriter } from './log-writer';
 
 /** SHA-256 as lowercase hex of the UTF-8 text, for chain.ts. */
 export function sha256Hex(text: string): Promise<string> {
-  return Promise.resolve(createHash('sha256').update(text, 'utf8').digest('hex'));
+  return Promise.resolve(sha256HexNow(text));
+}
+
+function sha256HexNow(text: string): string {
+  return createHash('sha256').update(text, 'utf8').digest('hex');
 }
 
 export interface EventDraft {
@@ -41,9 +45,12 @@ export class EventLogError extends Error {
   }
 }
 
+/** A checked draft: its payload copied, and written once as canonical JSON for the hash and the row. */
+type CheckedDraft = EventDraft & { payloadJson: string };
+
 interface Pending {
   countId: number;
-  drafts: EventDraft[];
+  drafts: CheckedDraft[];
   commandId: string | null;
   resolve(events: StoredEvent[]): void;
   reject(error: unknown): void;
@@ -56,12 +63,13 @@ interface Tail {
    * The command ids stored for the count, so a group can tell a retry without reading the database; null where
    * other processes write too (then the group's ids are looked up under the count's lock).
    */
-  commands: ReadonlySet<string> | null;
+  commands: Set<string> | null;
 }
 
 interface Built {
-  rows: StoredEvent[];
-  newTails: Map<number, Tail & { commands: Set<string> }>;
+  rows: EventRow[];
+  /** The tails after the group, with the command ids it adds (put into the cached set only once committed). */
+  newTails: Map<number, Tail & { added: string[] }>;
   outcomes: Map<Pending, StoredEvent[] | EventLogError>;
 }
 
@@ -228,6 +236,7 @@ export class EventLog {
       }
       const appends = decide(others).map((a) => checkDrafts(countId, a.drafts.map((d) => ({ ...d, commandId: a.commandId }))));
       const stored: StoredEvent[][] = [];
+      const rows: EventRow[] = [];
       const at = this.now();
       for (const append of appends) {
         const events: StoredEvent[] = [];
@@ -241,13 +250,19 @@ export class EventLog {
             station: draft.station,
             payload: draft.payload,
           };
-          const event: StoredEvent = { ...content, commandId: append.commandId, prevHash: tail.hash, hash: await eventHash(tail.hash, content, sha256Hex) };
+          const event: StoredEvent = {
+            ...content,
+            commandId: append.commandId,
+            prevHash: tail.hash,
+            hash: sha256HexNow(hashedText(tail.hash, content, draft.payloadJson)),
+          };
           events.push(event);
+          rows.push({ ...event, payloadJson: draft.payloadJson });
           tail = { seq: event.seq, hash: event.hash };
         }
         stored.push(events);
       }
-      await tx.insert(stored.flat());
+      await tx.insert(rows);
       result = { others, stored };
     });
     this.committed += 1;
@@ -272,7 +287,7 @@ export class EventLog {
       // the database instead of four (BEGIN, the command-id check, INSERT, COMMIT).
       const cached = this.cachedTails(countIds);
       const repeats = cached !== null && group.some((p) => p.commandId !== null && cached.get(p.countId)!.commands?.has(p.commandId) !== false);
-      const rows = cached === null || repeats || !this.writer.insertAtomic ? null : await this.build(group, cached, new Map());
+      const rows = cached === null || repeats || !this.writer.insertAtomic ? null : this.build(group, cached, new Map());
       if (rows !== null && this.writer.insertAtomic!.fits(rows.rows.length)) {
         await this.retryingBusy(() => this.writer.insertAtomic!.run(rows.rows));
         built = rows;
@@ -283,7 +298,7 @@ export class EventLog {
             if (this.shared) await tx.lockCounts(countIds);
             const known = await this.loadTails(countIds, tx);
             const earlier = await storedCommands(group, known, tx);
-            built = await this.build(group, known, earlier);
+            built = this.build(group, known, earlier);
             await tx.insert(built.rows);
           }),
         );
@@ -302,7 +317,13 @@ export class EventLog {
     }
     const { newTails, outcomes } = built as unknown as Built;
     this.committed += 1;
-    if (!this.shared) for (const [countId, tail] of newTails) this.tails.set(countId, tail);
+    if (!this.shared) {
+      for (const [countId, { seq, hash, commands, added }] of newTails) {
+        // The cached set grows in place: copying it per group would cost as much as every command the count had.
+        if (commands) for (const id of added) commands.add(id);
+        this.tails.set(countId, { seq, hash, commands });
+      }
+    }
     for (const pending of group) {
       const outcome = outcomes.get(pending);
       if (outcome instanceof Error || outcome === undefined) pending.reject(outcome ?? new Error('append lost its outcome'));
@@ -323,12 +344,12 @@ export class EventLog {
 
   /**
    * The group's rows, chained on the given tails; `earlier` holds the events already stored for command ids of
-   * the group. The new tails carry new command-id sets: the cached ones change only after the commit.
+   * the group. The new tails list the command ids the group adds: the cached sets take them only after the commit.
    */
-  private async build(group: Pending[], known: Map<number, Tail>, earlier: Map<string, StoredEvent[]>): Promise<Built> {
+  private build(group: Pending[], known: Map<number, Tail>, earlier: Map<string, StoredEvent[]>): Built {
     const newTails: Built['newTails'] = new Map();
     const outcomes = new Map<Pending, StoredEvent[] | EventLogError>();
-    const rows: StoredEvent[] = [];
+    const rows: EventRow[] = [];
     for (const pending of group) {
       const tail = newTails.get(pending.countId) ?? known.get(pending.countId);
       if (!tail) {
@@ -354,17 +375,22 @@ export class EventLog {
           station: draft.station,
           payload: draft.payload,
         };
-        const event: StoredEvent = { ...content, commandId: pending.commandId, prevHash: hash, hash: await eventHash(hash, content, sha256Hex) };
+        const event: StoredEvent = {
+          ...content,
+          commandId: pending.commandId,
+          prevHash: hash,
+          hash: sha256HexNow(hashedText(hash, content, draft.payloadJson)),
+        };
         stored.push(event);
+        rows.push({ ...event, payloadJson: draft.payloadJson });
         seq = event.seq;
         hash = event.hash;
       }
-      const commands = newTails.get(pending.countId)?.commands ?? new Set(tail.commands ?? []);
-      if (pending.commandId !== null) commands.add(pending.commandId);
-      newTails.set(pending.countId, { seq, hash, commands });
+      const added = newTails.get(pending.countId)?.added ?? [];
+      if (pending.commandId !== null) added.push(pending.commandId);
+      newTails.set(pending.countId, { seq, hash, commands: tail.commands, added });
       if (key !== null) earlier.set(key, stored);
       outcomes.set(pending, stored);
-      rows.push(...stored);
     }
     return { rows, newTails, outcomes };
   }
@@ -446,7 +472,7 @@ function commandKey(countId: number, commandId: string): string {
  * a copy of the drafts whose payload is already as it will read back (canonical JSON parsed again), so the
  * caller changing its objects after append() changes nothing.
  */
-function checkDrafts(countId: number, drafts: EventDraft[]): { commandId: string | null; drafts: EventDraft[] } {
+function checkDrafts(countId: number, drafts: EventDraft[]): { commandId: string | null; drafts: CheckedDraft[] } {
   const bad = (message: string) => new EventLogError('invalid_draft', message);
   if (!Number.isInteger(countId) || countId < 1) throw bad('countId must be a positive integer.');
   if (!Array.isArray(drafts)) throw bad('drafts must be an array.');
@@ -466,15 +492,17 @@ function checkDrafts(countId: number, drafts: EventDraft[]): { commandId: string
     if (d.at !== undefined && !Number.isSafeInteger(d.at)) throw bad('at must be an integer number of epoch milliseconds.');
     if (d.payload === undefined) throw bad('payload is required (use null or {} for none).');
   }
-  const copies = drafts.map((d) => {
+  const copies = drafts.map((d): CheckedDraft => {
     let payload: unknown;
+    let payloadJson: string;
     try {
-      payload = JSON.parse(canonicalJson(d.payload)) as unknown;
+      payloadJson = canonicalJson(d.payload);
+      payload = JSON.parse(payloadJson) as unknown;
     } catch (error) {
       throw bad(`payload: ${(error as Error).message}`);
     }
     const actor = d.actor === null ? null : { userId: d.actor.userId, name: d.actor.name };
-    return { type: d.type, payload, actor, station: d.station, commandId, ...(d.at !== undefined ? { at: d.at } : {}) };
+    return { type: d.type, payload, payloadJson, actor, station: d.station, commandId, ...(d.at !== undefined ? { at: d.at } : {}) };
   });
   return { commandId, drafts: copies };
 }

@@ -63,7 +63,19 @@ interface LiveCount {
   /** Open sockets per station code (socket ids), for presence. */
   present: Map<string, Set<string>>;
   lostTimers: Map<string, NodeJS.Timeout>;
+  /** When the oldest event in the outbox was committed. */
+  outboxSince?: number;
+  /** A broadcast of the outbox is set for the next turn of the event loop. */
+  flushQueued?: boolean;
+  /** Broadcasts the outbox when its oldest event has waited COALESCE_MS, if no commit has done so first. */
+  flushTimer?: NodeJS.Timeout | null;
 }
+
+/**
+ * The longest a committed event waits for the commits behind it before it is broadcast. While answers stream in,
+ * each commit would otherwise be a message to every socket of the room; held back, a poll's answers go out as one.
+ */
+export const COALESCE_MS = 25;
 
 export const countRoom = (countId: number) => `count:${countId}`;
 
@@ -336,6 +348,8 @@ export class CountService {
   private drop(c: LiveCount, error: unknown): void {
     if (this.counts.get(c.id) !== c) return; // already dropped by an earlier failure
     this.counts.delete(c.id);
+    // Committed events held back for the commit that failed go out now.
+    this.flush(c);
     if (c.timer) clearTimeout(c.timer);
     c.timer = null;
     for (const t of c.lostTimers.values()) clearTimeout(t);
@@ -358,16 +372,35 @@ export class CountService {
   }
 
   /**
-   * Events committed in the same moment (one group commit answers many commands) go out as one message, on the
-   * next turn of the event loop, in seq order.
+   * Committed events go out to the room as one message, in seq order, on the next turn of the event loop. While
+   * more of the count's events are decided and on their way to the disk, the message waits for their commit too
+   * (for at most COALESCE_MS): a poll's answers, committed in a few groups, reach every socket as one message
+   * instead of one per group. Nobody hears of an event before its commit either way.
    */
   private publish(c: LiveCount, events: CountEventDto[]) {
+    if (c.outbox.length === 0) c.outboxSince = this.now();
     c.outbox.push(...events);
-    if (c.outbox.length !== events.length) return;
-    setImmediate(() => {
-      const out = c.outbox.splice(0);
-      if (out.length) this.deps.broadcast(c.id, out);
-    });
+    if (c.flushQueued) return;
+    const waited = this.now() - (c.outboxSince ?? 0);
+    if (c.projected.lastSeq > c.state.lastSeq && waited < COALESCE_MS) {
+      // A commit that takes long (a busy database) must not hold the events before it back.
+      if (!c.flushTimer) {
+        c.flushTimer = setTimeout(() => this.flush(c), COALESCE_MS - waited);
+        c.flushTimer.unref?.();
+      }
+      return;
+    }
+    c.flushQueued = true;
+    setImmediate(() => this.flush(c));
+  }
+
+  /** Broadcasts what the outbox holds. */
+  private flush(c: LiveCount) {
+    c.flushQueued = false;
+    if (c.flushTimer) clearTimeout(c.flushTimer);
+    c.flushTimer = null;
+    const out = c.outbox.splice(0);
+    if (out.length) this.deps.broadcast(c.id, out);
   }
 
   /** The clock's own events up to now (steps reached, built-in holds, poll time-outs, T-0). */
@@ -617,6 +650,8 @@ export class CountService {
   close(): void {
     this.closed = true;
     for (const c of this.counts.values()) {
+      // What was committed and held back goes out before the sockets close.
+      this.flush(c);
       if (c.timer) clearTimeout(c.timer);
       for (const t of c.lostTimers.values()) clearTimeout(t);
       c.lostTimers.clear();

@@ -1,4 +1,5 @@
 import { readFileSync } from 'node:fs';
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   canonicalEvent,
@@ -108,6 +109,42 @@ describe('canonicalEvent and the hash rule', () => {
   it('ignores fields outside the canonical form (such as a commandId) and the key order of the input', async () => {
     const reordered = { payload: { procedure: 'Kestrel-2 hot fire', revision: 3 }, station: 'TC', actor: { name: 'Ines Okafor', userId: 7 }, at: 1767225600000, type: 'count:created', seq: 1, countId: 1 };
     expect(canonicalEvent({ ...reordered, commandId: 'c-1' } as ChainEventContent)).toBe(CREATED_TEXT);
+  });
+});
+
+describe('canonicalEvent with the payload already written', () => {
+  it('gives the hand-written texts', () => {
+    expect(canonicalEvent(created, canonicalJson(created.payload))).toBe(CREATED_TEXT);
+    expect(canonicalEvent(hold, canonicalJson(hold.payload))).toBe(HOLD_TEXT);
+  });
+
+  it('is the same text as writing the whole event, for any event', () => {
+    const json = fc.letrec((tie) => ({
+      value: fc.oneof(
+        { depthSize: 'small' },
+        fc.constant(null),
+        fc.boolean(),
+        fc.double({ noNaN: true, noDefaultInfinity: true }),
+        fc.string({ unit: 'binary' }),
+        fc.array(tie('value'), { maxLength: 4 }),
+        fc.dictionary(fc.string({ unit: 'binary' }), tie('value'), { maxKeys: 4 }),
+      ),
+    })).value;
+    const event = fc.record({
+      countId: fc.integer({ min: 1 }),
+      seq: fc.integer({ min: 1 }),
+      type: fc.string({ unit: 'binary' }),
+      at: fc.integer(),
+      actor: fc.option(fc.record({ userId: fc.option(fc.integer()), name: fc.string({ unit: 'binary' }) })),
+      station: fc.option(fc.string({ unit: 'binary' })),
+      payload: json,
+    });
+    fc.assert(
+      fc.property(event, (e) => {
+        expect(canonicalEvent(e, canonicalJson(e.payload))).toBe(canonicalEvent(e));
+      }),
+      { numRuns: 500 },
+    );
   });
 });
 

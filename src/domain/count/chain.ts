@@ -78,22 +78,29 @@ function write(value: unknown, path: string): string {
   }
 }
 
-/** The canonical text of one event: what its hash covers, after the previous hash. */
-export function canonicalEvent(e: ChainEventContent): string {
-  return canonicalJson({
-    countId: e.countId,
-    seq: e.seq,
-    type: e.type,
-    at: e.at,
-    actor: e.actor === null ? null : { userId: e.actor.userId, name: e.actor.name },
-    station: e.station,
-    payload: e.payload,
-  });
+/**
+ * The canonical text of one event: what its hash covers, after the previous hash. `payloadJson`, when the caller
+ * has it already, is `canonicalJson(e.payload)`: the payload is then not written a second time.
+ */
+export function canonicalEvent(e: ChainEventContent, payloadJson?: string): string {
+  const actor = e.actor === null ? null : { userId: e.actor.userId, name: e.actor.name };
+  if (payloadJson === undefined) {
+    return canonicalJson({ countId: e.countId, seq: e.seq, type: e.type, at: e.at, actor, station: e.station, payload: e.payload });
+  }
+  // The members sort as actor, at, countId, payload, seq, station, type: the payload goes between two halves.
+  const before = canonicalJson({ actor, at: e.at, countId: e.countId });
+  const after = canonicalJson({ seq: e.seq, station: e.station, type: e.type });
+  return `${before.slice(0, -1)},"payload":${payloadJson},${after.slice(1)}`;
+}
+
+/** The text the hash rule hashes: the previous hash, a newline and the event's canonical text. */
+export function hashedText(prevHash: string, e: ChainEventContent, payloadJson?: string): string {
+  return `${prevHash}\n${canonicalEvent(e, payloadJson)}`;
 }
 
 /** The hash of an event given the previous event's hash (GENESIS_HASH for seq 1). */
 export function eventHash(prevHash: string, e: ChainEventContent, sha256: Sha256Hex): Promise<string> {
-  return sha256(`${prevHash}\n${canonicalEvent(e)}`);
+  return sha256(hashedText(prevHash, e));
 }
 
 /**

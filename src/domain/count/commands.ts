@@ -69,12 +69,40 @@ function limitsText(step: Pick<PlanStep, 'min' | 'max' | 'unit'>): string {
   return `at least ${step.min} ${unit}`.trim();
 }
 
+function notYoursRefusal(ctx: CommandContext, station: string, what: string): Decision {
+  const yours = ctx.mannedStations.length > 0 ? `you man ${ctx.mannedStations.join(', ')}` : 'you man no station in this count';
+  return refuse(403, `${what} belongs to ${station}; ${yours}.`);
+}
+
+/** A station's GO or NO-GO; the last answer of a poll also closes it. */
+function decideAnswer(state: CountState, command: Extract<CountCommand, { type: 'poll:answer' }>, ctx: CommandContext): Decision {
+  const poll = state.poll;
+  if (!poll) return refuse(409, 'No poll is open: the poll has closed.');
+  if (poll.pollId !== command.pollId) return refuse(409, `Poll ${command.pollId} has closed; poll ${poll.pollId} is open now.`);
+  if (!poll.stations.includes(command.station)) return refuse(400, `${command.station} is not asked in this poll.`);
+  if (!ctx.mannedStations.includes(command.station)) return notYoursRefusal(ctx, command.station, 'That answer');
+  const reason = command.reason?.trim() ?? '';
+  if (command.answer === 'nogo' && reason === '') return refuse(400, `Say why ${command.station} is no-go.`);
+  const answer = draft(
+    'poll:answered',
+    { pollId: poll.pollId, station: command.station, answer: command.answer, reason, responseMs: Math.max(0, ctx.now - poll.openedAt) },
+    { actor: { userId: ctx.actor.userId, name: ctx.actor.name }, station: command.station },
+  );
+  const allIn = poll.stations.every((s) => s === command.station || poll.answers[s] !== undefined);
+  if (!allIn) return accept([answer]);
+  // The last answer: the poll closes on the state that holds it.
+  const after = replay(stampEvents(state.lastSeq, [answer], ctx.now), state);
+  return accept([answer, ...closePollDrafts(after)]);
+}
+
 export function decide(state: CountState, command: CountCommand, ctx: CommandContext): Decision {
   const plan = state.plan;
   if (!plan) return refuse(409, 'This count has no plan yet.');
   if (state.status === 'scrubbed' || state.status === 'complete') {
     return refuse(409, `The count is over (${state.status}): nothing more can be done in it.`);
   }
+  // Answers are most of a poll's commands: decided apart, without the helpers the other commands share.
+  if (command.type === 'poll:answer') return decideAnswer(state, command, ctx);
   const roles = ctx.actor.roles;
   const isConductor = roles.includes('conductor');
   const isSafety = roles.includes('safety');
@@ -95,10 +123,7 @@ export function decide(state: CountState, command: CountCommand, ctx: CommandCon
     const at = reachTimes(plan).get(step.key);
     return refuse(409, `"${stepLabel(step)}" has not been reached yet${at !== undefined ? `: it comes at ${t(at)}` : ''}.`);
   };
-  const notYours = (station: string, what: string): Decision | null =>
-    mans(station)
-      ? null
-      : refuse(403, `${what} belongs to ${station}; ${ctx.mannedStations.length > 0 ? `you man ${ctx.mannedStations.join(', ')}` : 'you man no station in this count'}.`);
+  const notYours = (station: string, what: string): Decision | null => (mans(station) ? null : notYoursRefusal(ctx, station, what));
 
   switch (command.type) {
     case 'count:start': {
@@ -136,25 +161,6 @@ export function decide(state: CountState, command: CountCommand, ctx: CommandCon
       if (!Number.isInteger(timeout) || timeout < 5 || timeout > 3600) return refuse(400, 'A poll times out after 5 seconds to an hour.');
       const question = command.question?.trim() || step?.instruction || 'Go/no-go to continue the count?';
       return accept([pollOpenDraft(state, { stations: [...new Set(stations)], stepKey: step?.key ?? null, question, timeoutSeconds: timeout }, as())]);
-    }
-
-    case 'poll:answer': {
-      const poll = state.poll;
-      if (!poll) return refuse(409, 'No poll is open: the poll has closed.');
-      if (poll.pollId !== command.pollId) return refuse(409, `Poll ${command.pollId} has closed; poll ${poll.pollId} is open now.`);
-      if (!poll.stations.includes(command.station)) return refuse(400, `${command.station} is not asked in this poll.`);
-      const no = notYours(command.station, 'That answer');
-      if (no) return no;
-      const reason = command.reason?.trim() ?? '';
-      if (command.answer === 'nogo' && reason === '') return refuse(400, `Say why ${command.station} is no-go.`);
-      const answer = draft(
-        'poll:answered',
-        { pollId: poll.pollId, station: command.station, answer: command.answer, reason, responseMs: Math.max(0, ctx.now - poll.openedAt) },
-        as(command.station),
-      );
-      const after = replay(stampEvents(state.lastSeq, [answer], ctx.now), state);
-      const allIn = after.poll !== null && after.poll.stations.every((s) => after.poll!.answers[s] !== undefined);
-      return accept(allIn ? [answer, ...closePollDrafts(after)] : [answer]);
     }
 
     case 'hold:call': {
