@@ -117,6 +117,8 @@ export interface CountServiceDeps {
   logError?: (message: string, error?: unknown) => void;
   /** After a failed commit, the wait before the count is read back from its log (tests shorten it). */
   reviveAfterMs?: number;
+  /** How long committed events may wait for the commits behind them before they are broadcast (COALESCE_MS). */
+  coalesceMs?: number;
   /**
    * With a shared log (several processes): whether a socket of someone manning `station` is in the count's
    * room on any process, asked before a station is logged as lost (its socket may be on another process).
@@ -382,10 +384,11 @@ export class CountService {
     c.outbox.push(...events);
     if (c.flushQueued) return;
     const waited = this.now() - (c.outboxSince ?? 0);
-    if (c.projected.lastSeq > c.state.lastSeq && waited < COALESCE_MS) {
+    const wait = this.deps.coalesceMs ?? COALESCE_MS;
+    if (c.projected.lastSeq > c.state.lastSeq && waited < wait) {
       // A commit that takes long (a busy database) must not hold the events before it back.
       if (!c.flushTimer) {
-        c.flushTimer = setTimeout(() => this.flush(c), COALESCE_MS - waited);
+        c.flushTimer = setTimeout(() => this.flush(c), wait - waited);
         c.flushTimer.unref?.();
       }
       return;
