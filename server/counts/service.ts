@@ -69,6 +69,8 @@ interface LiveCount {
   flushQueued?: boolean;
   /** Broadcasts the outbox when its oldest event has waited COALESCE_MS, if no commit has done so first. */
   flushTimer?: NodeJS.Timeout | null;
+  /** Who waits for events up to a seq to reach the room (see broadcasted()). */
+  broadcastWaiters?: { seq: number; resolve: () => void }[];
 }
 
 /**
@@ -397,13 +399,34 @@ export class CountService {
     setImmediate(() => this.flush(c));
   }
 
-  /** Broadcasts what the outbox holds. */
+  /** Broadcasts what the outbox holds, then lets go whoever waited for those events to go out. */
   private flush(c: LiveCount) {
     c.flushQueued = false;
     if (c.flushTimer) clearTimeout(c.flushTimer);
     c.flushTimer = null;
     const out = c.outbox.splice(0);
     if (out.length) this.deps.broadcast(c.id, out);
+    if (!c.broadcastWaiters?.length) return;
+    // Every committed event has gone out now (the outbox is empty); a count dropped or closed lets everyone go.
+    const gone = this.counts.get(c.id) !== c || this.closed;
+    c.broadcastWaiters = c.broadcastWaiters.filter((w) => {
+      if (w.seq > c.state.lastSeq && !gone) return true;
+      w.resolve();
+      return false;
+    });
+  }
+
+  /**
+   * Resolves once the count's events up to `seq` have been handed to its room (at once if they have been, or if
+   * the count is no longer served from memory). A socket answers a command after this, so the answer and the
+   * events it names reach the socket together, the events first.
+   */
+  broadcasted(countId: number, seq: number): Promise<void> {
+    const c = this.counts.get(countId);
+    // A committed event is in the outbox until it goes out: one that is not there has gone.
+    const waiting = c && (seq > c.state.lastSeq || (c.outbox.length > 0 && c.outbox[0]!.seq <= seq));
+    if (!c || this.closed || !waiting) return Promise.resolve();
+    return new Promise((resolve) => (c.broadcastWaiters ??= []).push({ seq, resolve }));
   }
 
   /** The clock's own events up to now (steps reached, built-in holds, poll time-outs, T-0). */

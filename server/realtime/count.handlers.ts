@@ -73,6 +73,10 @@ export function registerCountHandlers(_io: HoldfireServer, socket: HoldfireSocke
       const events = await counts.command(u.teamId, parsed.data.countId, { id: u.id, teamId: u.teamId, name: u.name, roles: u.roles }, parsed.data.command as CountCommand & {
         commandId?: string;
       });
+      // Answered once the room has the events (a broadcast may wait for the commits behind it): the socket has
+      // folded them in seq order when the answer names them, instead of seeing a gap before it.
+      const last = events.at(-1);
+      if (last) await counts.broadcasted(parsed.data.countId, last.seq);
       ack({ data: { events } });
     } catch (error) {
       answerError(ack, error, log);
