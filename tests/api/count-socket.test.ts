@@ -66,8 +66,18 @@ describe('polls over the socket', () => {
     await prop.events.waitFor((e) => e.type === 'poll:opened' && e.payload.pollId === pollId);
     await pad.events.waitFor((e) => e.type === 'poll:opened');
 
-    const a = await send(prop.socket, id, { type: 'poll:answer', pollId, station: 'PROP', answer: 'go' });
+    // What reaches PROP's socket, in the order it arrives: the room's events, and the answer to its command.
+    const arrivals: string[] = [];
+    prop.socket.on('count:events', (list: { seq: number }[]) => arrivals.push(...list.map((e) => `event ${e.seq}`)));
+    const a = await new Promise<Reply>((resolve) =>
+      prop.socket.emit('count:command', { countId: id, command: { type: 'poll:answer', pollId, station: 'PROP', answer: 'go' } }, (reply: Reply) => {
+        arrivals.push('answer');
+        resolve(reply);
+      }),
+    );
     expect(a.data?.events.map((e) => e.type)).toEqual(['poll:answered']);
+    // The answer comes after the room's broadcast of its events: the socket has folded them when it is answered.
+    expect(arrivals).toEqual([`event ${a.data!.events[0]!.seq}`, 'answer']);
     const b = await send(pad.socket, id, { type: 'poll:answer', pollId, station: 'PAD', answer: 'go' });
     expect(b.data?.events.map((e) => e.type)).toEqual(['poll:answered', 'poll:closed']);
     for (const p of [tc, prop, pad]) {
