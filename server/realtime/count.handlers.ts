@@ -1,7 +1,7 @@
 import { CLIENT_EVENTS } from '../../src/contract/socket';
 import type { CountCommand } from '../../src/domain/count/commands';
 import type { Ack } from '../../src/contract/socket';
-import { countRoom, type CountService } from '../counts/service';
+import { countRoom, type CountActor, type CountService } from '../counts/service';
 import { HttpError, storageRefusal } from '../http/errors';
 import { stateDto } from '../routes/counts.routes';
 import type { Request } from 'express';
@@ -64,15 +64,22 @@ export function registerCountHandlers(_io: HoldfireServer, socket: HoldfireSocke
     counts.disconnect(parsed.data.countId, socket.id);
   });
 
+  /** Who acts, read from the session's user once: a change to the person closes the socket (see above). */
+  let actor: CountActor | null = null;
+  async function commander(): Promise<CountActor> {
+    if (actor) return actor;
+    const u = await person();
+    actor = { id: u.id, teamId: u.teamId, name: u.name, roles: u.roles };
+    return actor;
+  }
+
   socket.on('count:command', async (payload, ack) => {
     if (typeof ack !== 'function') return;
     const parsed = CLIENT_EVENTS['count:command'].schema.safeParse(payload);
     if (!parsed.success) return ack({ error: 'That command is not valid.', details: details(parsed.error.issues) });
     try {
-      const u = await person();
-      const events = await counts.command(u.teamId, parsed.data.countId, { id: u.id, teamId: u.teamId, name: u.name, roles: u.roles }, parsed.data.command as CountCommand & {
-        commandId?: string;
-      });
+      const who = await commander();
+      const events = await counts.command(who.teamId, parsed.data.countId, who, parsed.data.command as CountCommand & { commandId?: string });
       // Answered once the room has the events (a broadcast may wait for the commits behind it): the socket has
       // folded them in seq order when the answer names them, instead of seeing a gap before it.
       const last = events.at(-1);

@@ -87,9 +87,23 @@ export function canonicalEvent(e: ChainEventContent, payloadJson?: string): stri
   if (payloadJson === undefined) {
     return canonicalJson({ countId: e.countId, seq: e.seq, type: e.type, at: e.at, actor, station: e.station, payload: e.payload });
   }
-  // The members sort as actor, at, countId, payload, seq, station, type: the payload goes between two halves.
-  const before = canonicalJson({ actor, at: e.at, countId: e.countId });
-  const after = canonicalJson({ seq: e.seq, station: e.station, type: e.type });
+  // The usual event, written out directly in the members' sorted order (actor, at, countId, payload, seq, station,
+  // type); anything of another shape goes the general way, which also refuses what JSON cannot carry.
+  const { at, countId, seq, station, type } = e;
+  if (
+    Number.isFinite(at) &&
+    Number.isFinite(countId) &&
+    Number.isFinite(seq) &&
+    typeof type === 'string' &&
+    (station === null || typeof station === 'string') &&
+    (actor === null || (typeof actor.name === 'string' && (actor.userId === null || Number.isFinite(actor.userId))))
+  ) {
+    const who = actor === null ? 'null' : `{"name":${JSON.stringify(actor.name)},"userId":${JSON.stringify(actor.userId)}}`;
+    const where = station === null ? 'null' : JSON.stringify(station);
+    return `{"actor":${who},"at":${JSON.stringify(at)},"countId":${JSON.stringify(countId)},"payload":${payloadJson},"seq":${JSON.stringify(seq)},"station":${where},"type":${JSON.stringify(type)}}`;
+  }
+  const before = canonicalJson({ actor, at, countId });
+  const after = canonicalJson({ seq, station, type });
   return `${before.slice(0, -1)},"payload":${payloadJson},${after.slice(1)}`;
 }
 

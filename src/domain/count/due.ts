@@ -106,11 +106,21 @@ function reachDrafts(state: CountState, step: PlanStep): EventDraft[] {
   return out;
 }
 
-interface Due {
-  at: number;
-  /** Made only for the candidate that wins: building a poll's closing drafts walks every station. */
-  drafts: () => EventDraft[];
+/** The next thing the clock makes happen; its drafts are made only for the one that wins (see dueDrafts). */
+type Due = { at: number } & (
+  | { kind: 'poll-timeout' }
+  | { kind: 'built-in-hold-end'; stepKey: string }
+  | { kind: 'waiting-poll'; step: PlanStep }
+  | { kind: 'step'; step: PlanStep }
+  | { kind: 't0' }
+);
+
+/** The instant the running clock reads `t`, never before its anchor or the last event. */
+function instantOf(clock: CountState['clock'], anchorAt: number, t: number, floor: number): number {
+  return Math.max(Math.round(anchorAt + (t - clock.tSeconds) * 1000), anchorAt, floor);
 }
+
+const earlier = (best: Due | null, next: Due): Due => (best === null || next.at < best.at ? next : best);
 
 /** The earliest thing the clock will make happen from this state, whenever that is. */
 function nextDue(state: CountState): Due | null {
@@ -118,36 +128,44 @@ function nextDue(state: CountState): Due | null {
   // In safing the clock stands still, but a safing poll still times out.
   if (!plan || (!isLive(state) && !(state.status === 'safing' && state.poll))) return null;
   const floor = state.lastAt ?? 0;
-  const candidates: Due[] = [];
+  let best: Due | null = null;
 
-  if (state.poll) {
-    const at = state.poll.openedAt + state.poll.timeoutSeconds * 1000;
-    candidates.push({ at, drafts: () => closePollDrafts(state) });
-  }
+  if (state.poll) best = earlier(best, { at: state.poll.openedAt + state.poll.timeoutSeconds * 1000, kind: 'poll-timeout' });
   if (state.builtInHold) {
     const { stepKey, startedAt, durationSeconds } = state.builtInHold;
-    candidates.push({ at: startedAt + durationSeconds * 1000, drafts: () => [draft('builtInHold:ended', { stepKey, early: false })] });
+    best = earlier(best, { at: startedAt + durationSeconds * 1000, kind: 'built-in-hold-end', stepKey });
   }
   if (!state.poll && isLive(state)) {
     // A poll step reached while another poll was open asks its question as soon as that one closes.
     const waiting = countedSteps(plan).find((s) => s.kind === 'poll' && state.steps[s.key]?.status === 'current' && !hasPolled(state, s.key));
-    if (waiting) candidates.push({ at: floor, drafts: () => [pollOpenDraft(state, { stations: waiting.stations, stepKey: waiting.key, question: waiting.instruction })] });
+    if (waiting) best = earlier(best, { at: floor, kind: 'waiting-poll', step: waiting });
   }
   const { clock } = state;
   if (clock.running && clock.anchorAt !== null) {
-    const when = (t: number) => Math.max(Math.round(clock.anchorAt! + (t - clock.tSeconds) * 1000), clock.anchorAt!, floor);
-    const times = reachTimes(plan);
     const step = countedSteps(plan).find((s) => state.steps[s.key]?.status === 'pending');
-    const stepT = step ? times.get(step.key)! : null;
-    const stepDue = step && stepT !== null ? { at: when(stepT), drafts: () => reachDrafts(state, step) } : null;
-    const t0Due = state.t0At === null ? { at: when(0), drafts: () => [draft('t0:reached', {})] } : null;
-    // At the same instant, steps at or before T-0 come before T-0 itself.
+    const stepT = step ? reachTimes(plan).get(step.key)! : null;
+    const stepDue: Due | null = step && stepT !== null ? { at: instantOf(clock, clock.anchorAt, stepT, floor), kind: 'step', step } : null;
+    const t0Due: Due | null = state.t0At === null ? { at: instantOf(clock, clock.anchorAt, 0, floor), kind: 't0' } : null;
+    // At the same instant, steps at or before T-0 come before T-0 itself (the first of equals wins).
     const ordered = stepT !== null && stepT > 0 ? [t0Due, stepDue] : [stepDue, t0Due];
-    for (const d of ordered) if (d) candidates.push(d);
+    for (const d of ordered) if (d) best = earlier(best, d);
   }
-  let best: Due | null = null;
-  for (const c of candidates) if (best === null || c.at < best.at) best = c;
   return best;
+}
+
+function dueDrafts(state: CountState, due: Due): EventDraft[] {
+  switch (due.kind) {
+    case 'poll-timeout':
+      return closePollDrafts(state);
+    case 'built-in-hold-end':
+      return [draft('builtInHold:ended', { stepKey: due.stepKey, early: false })];
+    case 'waiting-poll':
+      return [pollOpenDraft(state, { stations: due.step.stations, stepKey: due.step.key, question: due.step.instruction })];
+    case 'step':
+      return reachDrafts(state, due.step);
+    case 't0':
+      return [draft('t0:reached', {})];
+  }
 }
 
 /** The epoch ms of the next moment the clock makes something happen, or null when nothing is coming. */
@@ -163,7 +181,7 @@ export function dueEvents(state: CountState, nowMs: number): DueDraft[] {
   for (let guard = 0; guard < 100_000; guard++) {
     const next = nextDue(s);
     if (!next || next.at > nowMs) break;
-    const stamped = next.drafts().map((d): DueDraft => ({ ...d, at: next.at }));
+    const stamped = dueDrafts(s, next).map((d): DueDraft => ({ ...d, at: next.at }));
     out.push(...stamped);
     s = replay(stampEvents(s.lastSeq, stamped, next.at), s);
   }

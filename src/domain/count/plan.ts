@@ -59,14 +59,24 @@ export function isSafingStep(plan: Pick<CountPlan, 'safingPhaseKeys'>, step: Pla
   return plan.safingPhaseKeys.includes(step.phaseKey);
 }
 
-/** The steps the clock runs through, in plan order. */
-export function countedSteps(plan: CountPlan): PlanStep[] {
-  return plan.steps.filter((s) => !isSafingStep(plan, s));
+/**
+ * Worked out once per plan object: a count's plan never changes after count:created, and the clock asks for these
+ * on every event. Callers only read what they get.
+ */
+function oncePerPlan<T>(make: (plan: CountPlan) => T): (plan: CountPlan) => T {
+  const made = new WeakMap<CountPlan, T>();
+  return (plan) => {
+    if (made.has(plan)) return made.get(plan)!;
+    const value = make(plan);
+    made.set(plan, value);
+    return value;
+  };
 }
 
-export function safingSteps(plan: CountPlan): PlanStep[] {
-  return plan.steps.filter((s) => isSafingStep(plan, s));
-}
+/** The steps the clock runs through, in plan order. */
+export const countedSteps: (plan: CountPlan) => readonly PlanStep[] = oncePerPlan((plan) => plan.steps.filter((s) => !isSafingStep(plan, s)));
+
+export const safingSteps: (plan: CountPlan) => readonly PlanStep[] = oncePerPlan((plan) => plan.steps.filter((s) => isSafingStep(plan, s)));
 
 /** Where a count starts by default: the first counted step's time, or T-10:00 for a plan without times. */
 export function defaultStartT(steps: readonly PlanStep[], safingPhaseKeys: readonly string[] = []): number {
@@ -78,7 +88,7 @@ export function defaultStartT(steps: readonly PlanStep[], safingPhaseKeys: reado
  * The count time each counted step is reached at: its own time, or for an untimed step the time of the step
  * before it; a step before the start (or untimed before any timed one) is reached at the start.
  */
-export function reachTimes(plan: CountPlan): Map<string, number> {
+export const reachTimes: (plan: CountPlan) => ReadonlyMap<string, number> = oncePerPlan((plan) => {
   const out = new Map<string, number>();
   let last = plan.startTSeconds;
   for (const step of countedSteps(plan)) {
@@ -86,7 +96,7 @@ export function reachTimes(plan: CountPlan): Map<string, number> {
     out.set(step.key, last);
   }
   return out;
-}
+});
 
 /** A short label for messages: the instruction, cut at 80 characters. */
 export function stepLabel(step: Pick<PlanStep, 'instruction' | 'key'>): string {
