@@ -217,6 +217,8 @@ export interface Stack {
   stationProcs: ChildProcess[];
   url: string;
   wsUrl: string;
+  /** The bare socket.io reference (bench/server.ts). */
+  sioUrl: string;
   stations: BenchStation[];
   /** Session cookie per station code (its own operator, signed in). */
   cookies: Map<string, string>;
@@ -252,7 +254,7 @@ export async function startStack(stations: number): Promise<Stack> {
       execArgv: [...process.execArgv, '--expose-gc', ...profile],
     });
     children.push(server);
-    const { url, wsUrl } = await next<FromServer, 'listening'>(server, 'listening');
+    const { url, wsUrl, sioUrl } = await next<FromServer, 'listening'>(server, 'listening');
     const stationProcs = Array.from({ length: STATION_PROCESSES }, () => fork(path.join(here, 'stations.ts'), []));
     children.push(...stationProcs);
 
@@ -267,7 +269,7 @@ export async function startStack(stations: number): Promise<Stack> {
       const sessions = await Promise.all(batch.map((s) => signIn(url, s.email, setup.password)));
       batch.forEach((s, j) => cookies.set(s.code, sessions[j]!.cookie));
     }
-    return { server, stationProcs, url, wsUrl, stations: setup.stations, cookies, conductor, procedureId, revisionId, stop };
+    return { server, stationProcs, url, wsUrl, sioUrl, stations: setup.stations, cookies, conductor, procedureId, revisionId, stop };
   } catch (error) {
     await stop();
     throw error;

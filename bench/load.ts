@@ -58,7 +58,7 @@ async function connectStations(stack: Stack, list: { station: BenchStation; coun
 
 async function stationStats(stack: Stack): Promise<StationStats> {
   const all = (await askStations(stack.stationProcs, [{ type: 'stats' }], 'stats')).map((m) => m.stats);
-  const sum = { duplicated: 0, lost: 0, refused: 0, answered: 0, wsReplies: 0 };
+  const sum: StationStats = { duplicated: 0, lost: 0, refused: 0, answered: 0, wsReplies: 0, sioReplies: 0, sioAcks: 0 };
   for (const s of all) for (const k of Object.keys(sum) as (keyof StationStats)[]) sum[k] += s[k];
   return sum;
 }

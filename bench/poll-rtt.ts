@@ -6,6 +6,7 @@
  * the ws reference server) and two bench/stations.ts processes sharing the simulated stations. Everything
  * talks over 127.0.0.1 only; the temporary data directory is removed at the end.
  */
+import { io as connectSio } from 'socket.io-client';
 import WebSocket from 'ws';
 import { allConnected, askServer, askStations, benchCount, conductorSocket, f1, f2, median, POLL_LIMIT_MS, quantile, sleep, startStack, STATION_PROCESSES, withLimit } from './harness';
 import { benchLoad } from './load';
@@ -70,6 +71,51 @@ function conductorWs(wsUrl: string, n: number) {
   };
 }
 
+// ---------------------------------------------------------------- the bare socket.io reference's conductor
+
+function conductorSio(sioUrl: string, n: number) {
+  const socket = connectSio(sioUrl, { transports: ['websocket'], reconnection: false, forceNew: true, query: { role: 'conductor' } });
+  let current: { id: number; seen: Set<number>; resolve: (at: number) => void } | null = null;
+  let duplicated = 0;
+  let lost = 0;
+  let id = 0;
+  socket.on('answered', (reply: { id: number; station: number }) => {
+    if (!current || reply.id !== current.id) return;
+    if (current.seen.has(reply.station)) duplicated += 1;
+    current.seen.add(reply.station);
+    if (current.seen.size === n) {
+      current.resolve(performance.now());
+      current = null;
+    }
+  });
+  return {
+    socket,
+    duplicated: () => duplicated,
+    lost: () => lost,
+    open: () =>
+      new Promise<void>((resolve, reject) => {
+        socket.once('connect', () => resolve());
+        socket.once('connect_error', reject);
+      }),
+    async poll(sizes: MessageSizes): Promise<number> {
+      id += 1;
+      // The acknowledgement of an answer is about the size of the poll:answered event it carries.
+      const head = { id, answerSize: sizes.answer, ackSize: sizes.relay, relaySize: sizes.relay };
+      const message = { ...head, pad: 'x'.repeat(Math.max(0, sizes.poll - JSON.stringify({ ...head, pad: '' }).length)) };
+      const seen = new Set<number>();
+      const start = performance.now();
+      const done = new Promise<number>((resolve) => (current = { id, seen, resolve }));
+      socket.emit('open', message);
+      try {
+        return (await withLimit(done, POLL_LIMIT_MS, 'socket.io poll')) - start;
+      } catch (error) {
+        lost += n - seen.size;
+        throw error;
+      }
+    },
+  };
+}
+
 function diff(a: ServerTimings, b: ServerTimings): ServerTimings {
   return Object.fromEntries(Object.keys(a).map((k) => [k, b[k as keyof ServerTimings] - a[k as keyof ServerTimings]])) as unknown as ServerTimings;
 }
@@ -84,7 +130,7 @@ function add(into: ServerTimings | null, d: ServerTimings): ServerTimings {
 async function main() {
   const most = Math.max(...RUNS.map((r) => r.n));
   const stack = await startStack(most);
-  const { server, stationProcs, url, wsUrl, conductor } = stack;
+  const { server, stationProcs, url, wsUrl, sioUrl, conductor } = stack;
   const cookies = stack.cookies;
   try {
     console.log(`# ${new Date().toISOString()} node ${process.version}, ${STATION_PROCESSES} station processes, ${GAP_MS} ms between polls`);
@@ -120,10 +166,18 @@ async function main() {
         stationProcs.map((_, i) => ({ type: 'ws', wsUrl, clients: Math.max(0, Math.min(half, n - i * half)), firstIndex: i * half })),
         'ready',
       );
+      const bare = conductorSio(sioUrl, n);
+      await bare.open();
+      await askStations(
+        stationProcs,
+        stationProcs.map((_, i) => ({ type: 'sio', sioUrl, clients: Math.max(0, Math.min(half, n - i * half)), firstIndex: i * half })),
+        'ready',
+      );
 
-      // Warm-up, then measure: Holdfire and ws alternate, so machine noise falls on both alike.
+      // Warm-up, then measure: Holdfire, ws and bare socket.io take turns, so machine noise falls on all alike.
       const hf: number[] = [];
       const raw: number[] = [];
+      const sioTimes: number[] = [];
       let hfServer: ServerTimings | null = null;
       let wsServer: ServerTimings | null = null;
       for (let i = 0; i < run.warmup + run.measured; i++) {
@@ -134,12 +188,15 @@ async function main() {
         const t1 = measuring ? (await askServer(server, { type: 'timings' }, 'timings')).timings : null;
         const b = await ref.poll(tc.sizes as MessageSizes);
         await sleep(GAP_MS);
+        const t2 = measuring ? (await askServer(server, { type: 'timings' }, 'timings')).timings : null;
+        const c = await bare.poll(tc.sizes as MessageSizes);
+        await sleep(GAP_MS);
         if (measuring) {
-          const t2 = (await askServer(server, { type: 'timings' }, 'timings')).timings;
           hf.push(a);
           raw.push(b);
+          sioTimes.push(c);
           hfServer = add(hfServer, diff(t0!, t1!));
-          wsServer = add(wsServer, diff(t1!, t2));
+          wsServer = add(wsServer, diff(t1!, t2!));
         }
       }
       await sleep(200);
@@ -149,11 +206,16 @@ async function main() {
       const expectedWs = n * polls;
       const lost = sum('lost') + sum('refused') + (n * polls - sum('answered')) + tc.seqs.lost + tc.missingAnswers() + ref.lost() + (expectedWs - sum('wsReplies'));
       const duplicated = sum('duplicated') + tc.seqs.duplicated + ref.duplicated();
+      const sioLost = bare.lost() + (n * polls - sum('sioReplies')) + (n * polls - sum('sioAcks'));
       const sorted = [...hf].sort((x, y) => x - y);
       const hm = median(hf);
       const wm = median(raw);
       console.log(
         `poll-rtt N=${n} holdfire_median_ms=${f1(hm)} holdfire_p99_ms=${f1(quantile(sorted, 0.99))} ws_median_ms=${f1(wm)} ratio=${f2(hm / wm)} lost=${lost} duplicated=${duplicated}`,
+      );
+      const sm = median(sioTimes);
+      console.log(
+        `poll-rtt-socketio N=${n} socketio_median_ms=${f1(sm)} socketio_p99_ms=${f1(quantile([...sioTimes].sort((x, y) => x - y), 0.99))} ws_median_ms=${f1(wm)} socketio_to_ws=${f2(sm / wm)} holdfire_to_socketio=${f2(hm / sm)} lost=${sioLost} duplicated=${bare.duplicated()}`,
       );
       const m = run.measured;
       const h = hfServer!;
@@ -169,6 +231,7 @@ async function main() {
       await askStations(stationProcs, [{ type: 'close' }], 'closed');
       tc.socket.disconnect();
       ref.socket.close();
+      bare.socket.disconnect();
     }
   } finally {
     await stack.stop();

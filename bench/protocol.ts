@@ -53,7 +53,7 @@ export type ToServer =
   | { type: 'stop' };
 
 export type FromServer =
-  | { type: 'listening'; url: string; wsUrl: string }
+  | { type: 'listening'; url: string; wsUrl: string; sioUrl: string }
   | { type: 'setup'; teamId: number; stations: BenchStation[]; password: string }
   | { type: 'crew'; crewPlanId: number }
   | { type: 'timings'; timings: ServerTimings }
@@ -73,6 +73,7 @@ export type ToStations =
   /** Per-station figures of the last storm: when each station had every event up to `targetSeq`. */
   | { type: 'storm-report'; targetSeq: number }
   | { type: 'ws'; wsUrl: string; clients: number; firstIndex: number }
+  | { type: 'sio'; sioUrl: string; clients: number; firstIndex: number }
   | { type: 'stats' }
   | { type: 'close' };
 
@@ -85,6 +86,9 @@ export interface StationStats {
   refused: number;
   answered: number;
   wsReplies: number;
+  /** Polls of the socket.io reference answered, and their acknowledgements received. */
+  sioReplies: number;
+  sioAcks: number;
 }
 
 export interface StormReport {
@@ -105,7 +109,7 @@ export interface StormReport {
 }
 
 export type FromStations =
-  | { type: 'ready'; what: 'holdfire' | 'ws' }
+  | { type: 'ready'; what: 'holdfire' | 'ws' | 'sio' }
   | { type: 'stats'; stats: StationStats }
   | { type: 'dropped'; at: number }
   /** `failed`: why the stations that could not reconnect or rejoin did not. */

@@ -5,8 +5,10 @@
  * It also times the stages of a command from inside, by wrapping three methods of the running app (bench only):
  * CountService.command, EventLog.append, the count room's emit and Count.update.
  */
+import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
+import { Server as SocketIoServer, type Socket as SocketIoSocket } from 'socket.io';
 import { WebSocketServer, type WebSocket } from 'ws';
 import { hashPassword } from '../server/auth/passwords';
 import { startHoldfire } from '../server/bootstrap';
@@ -120,6 +122,36 @@ wss.on('connection', (socket, req) => {
 });
 const wsPort = (wss.address() as AddressInfo).port;
 
+// ---------------------------------------------------------------- the bare socket.io reference
+
+/**
+ * socket.io with nothing behind it, in the message pattern of a Holdfire poll: the conductor's message goes to the
+ * stations' room as one broadcast; each station's reply is acknowledged (the acknowledgement of the size of
+ * Holdfire's answer to poll:answer) and passed on to the conductor (the size of poll:answered). Nothing is checked,
+ * stored or folded: what socket.io itself costs over raw ws for the same exchange.
+ */
+const sioHttp = createServer();
+const sio = new SocketIoServer(sioHttp, { transports: ['websocket'] });
+let sioConductor: SocketIoSocket | null = null;
+const pad = (head: object, size: number) => {
+  const text = JSON.stringify({ ...head, pad: '' });
+  return { ...head, pad: 'x'.repeat(Math.max(0, size - text.length)) };
+};
+sio.on('connection', (socket) => {
+  if (socket.handshake.query.role === 'conductor') {
+    sioConductor = socket;
+    socket.on('open', (poll: { id: number }) => sio.to('stations').emit('poll', poll));
+    return;
+  }
+  void socket.join('stations');
+  socket.on('answer', (reply: { id: number; station: number; ackSize: number; relaySize: number }, ack: (a: unknown) => void) => {
+    ack({ data: pad({ id: reply.id }, reply.ackSize) });
+    sioConductor?.emit('answered', pad({ id: reply.id, station: reply.station }, reply.relaySize));
+  });
+});
+await new Promise<void>((resolve) => sioHttp.listen(0, '127.0.0.1', resolve));
+const sioPort = (sioHttp.address() as AddressInfo).port;
+
 // ---------------------------------------------------------------- orders from the orchestrator
 
 async function setup(n: number): Promise<FromServer> {
@@ -180,6 +212,7 @@ process.on('message', (m: ToServer) => {
       else if (m.type === 'stop') {
         for (const s of wss.clients) s.terminate();
         await new Promise<void>((resolve) => wss.close(() => resolve()));
+        await sio.close();
         await holdfire.shutdown();
         send({ type: 'stopped' });
         process.disconnect();
@@ -192,4 +225,4 @@ process.on('message', (m: ToServer) => {
 // The orchestrator died: do not linger.
 process.on('disconnect', () => process.exit(0));
 
-send({ type: 'listening', url: `http://127.0.0.1:${port}`, wsUrl: `ws://127.0.0.1:${wsPort}` });
+send({ type: 'listening', url: `http://127.0.0.1:${port}`, wsUrl: `ws://127.0.0.1:${wsPort}`, sioUrl: `http://127.0.0.1:${sioPort}` });

@@ -18,8 +18,9 @@ const send = (m: FromStations) => process.send!(m);
 /** Wall-clock ms with sub-ms resolution, comparable between the bench's processes on one machine. */
 const wallNow = () => performance.timeOrigin + performance.now();
 
-const stats: StationStats = { duplicated: 0, lost: 0, refused: 0, answered: 0, wsReplies: 0 };
+const stats: StationStats = { duplicated: 0, lost: 0, refused: 0, answered: 0, wsReplies: 0, sioReplies: 0, sioAcks: 0 };
 const wsClients: WebSocket[] = [];
+const sioClients: Socket[] = [];
 
 type Ack = { data?: { events: CountEventDto[] }; error?: string };
 
@@ -200,9 +201,23 @@ function wsClient(wsUrl: string, index: number): Promise<void> {
   });
 }
 
+/** A station of the bare socket.io reference: answers each poll with an acknowledged reply. */
+function sioClient(sioUrl: string, index: number): Promise<void> {
+  const socket = connect(sioUrl, { transports: ['websocket'], reconnection: false, forceNew: true, query: { role: 'station' } });
+  sioClients.push(socket);
+  socket.on('poll', (poll: { id: number; answerSize: number; ackSize: number; relaySize: number }) => {
+    const head = { id: poll.id, station: index, ackSize: poll.ackSize, relaySize: poll.relaySize };
+    const text = JSON.stringify({ ...head, pad: '' });
+    socket.emit('answer', { ...head, pad: 'x'.repeat(Math.max(0, poll.answerSize - text.length)) }, () => (stats.sioAcks += 1));
+    stats.sioReplies += 1;
+  });
+  return connected(socket);
+}
+
 async function closeAll(): Promise<void> {
   closing = true;
   for (const st of stations.splice(0)) st.socket.disconnect();
+  for (const s of sioClients.splice(0)) s.disconnect();
   closing = false;
   await Promise.all(
     wsClients.splice(0).map(
@@ -230,6 +245,11 @@ process.on('message', (m: ToStations) => {
           await Promise.all(Array.from({ length: Math.min(10, m.clients - i) }, (_, j) => wsClient(m.wsUrl, m.firstIndex + i + j)));
         }
         send({ type: 'ready', what: 'ws' });
+      } else if (m.type === 'sio') {
+        for (let i = 0; i < m.clients; i += 10) {
+          await Promise.all(Array.from({ length: Math.min(10, m.clients - i) }, (_, j) => sioClient(m.sioUrl, m.firstIndex + i + j)));
+        }
+        send({ type: 'ready', what: 'sio' });
       } else if (m.type === 'stats') {
         send({ type: 'stats', stats: { ...stats } });
       } else if (m.type === 'storm') {
@@ -238,7 +258,7 @@ process.on('message', (m: ToStations) => {
         send({ type: 'storm-report', report: stormReport(m.targetSeq) });
       } else if (m.type === 'close') {
         await closeAll();
-        Object.assign(stats, { duplicated: 0, lost: 0, refused: 0, answered: 0, wsReplies: 0 });
+        Object.assign(stats, { duplicated: 0, lost: 0, refused: 0, answered: 0, wsReplies: 0, sioReplies: 0, sioAcks: 0 });
         send({ type: 'closed' });
       }
     } catch (error) {
