@@ -8,7 +8,8 @@ import { caller, startSecurityApp, type Caller } from './support';
 
 /**
  * Stored XSS: markup, scripts and `javascript:` links saved through the real API in the free-text fields of
- * hazards, mitigations, procedures, counts, anomalies and people's names, then shown by the real client pages
+ * hazards, mitigations, procedures, counts, anomalies and their corrective actions, stations, crew plans and people's
+ * names, then shown by the real client pages
  * (jsdom, with fetch going to the real server as the signed-in person). The text must appear as text, and no
  * element, handler or script may come of it.
  */
@@ -70,9 +71,21 @@ beforeAll(async () => {
   });
   const anomaly = await write(safety, 'post', '/api/anomalies', { title: payload(3, 'anomalyTitle'), description: payload(4, 'anomalyDescription'), severity: '2', immediateActions: payload(0, 'immediateActions') });
   ids.anomaly = anomaly.id;
+  const me = await safety.agent.get('/api/auth/me').expect(200);
+  const ownerId = (me.body.user ?? me.body).id as number;
+  await write(safety, 'post', `/api/anomalies/${ids.anomaly}/actions`, { description: payload(1, 'actionText'), ownerId, dueDate: '2027-01-15' });
   const p1 = await conductor.agent.get('/api/procedures/1').expect(200);
   const released = (p1.body.revisions as { id: number; status: string }[]).find((r) => r.status === 'released')!;
-  await write(conductor, 'post', '/api/counts', { procedureId: 1, revisionId: released.id, name: payload(2, 'countName') });
+  const count = await write(conductor, 'post', '/api/counts', { procedureId: 1, revisionId: released.id, name: payload(2, 'countName') });
+  ids.count = count.id;
+  // Stations and crew plans: their names show in the count screens and the crew planner.
+  const station = await write(conductor, 'post', '/api/stations', { code: 'XSS1', name: payload(3, 'stationName'), callSign: `${MARK}[callSign]<i onclick=1>`, defaultPpe: [payload(0, 'ppe')] });
+  await write(conductor, 'post', '/api/crew-plans', {
+    name: payload(1, 'crewName'),
+    procedureId: ids.procedure,
+    notes: payload(2, 'crewNotes'),
+    assignments: [{ stationId: station.id, userId: ownerId }],
+  });
 });
 
 /** The client's fetch, sent to the real server with the signed-in session's cookie. */
@@ -121,7 +134,10 @@ describe('stored text is shown as text', () => {
     ['procedure revision (steps)', () => `/procedures/${ids.procedure}/revisions/1`, 'safety', ['phaseName', 'instruction', 'readingName']],
     ['count list', () => '/counts', 'safety', ['countName']],
     ['anomaly list', () => '/anomalies', 'safety', ['anomalyTitle']],
-    ['anomaly detail', () => `/anomalies/${ids.anomaly}`, 'safety', ['anomalyTitle', 'anomalyDescription', 'immediateActions']],
+    ['anomaly detail', () => `/anomalies/${ids.anomaly}`, 'safety', ['anomalyTitle', 'anomalyDescription', 'immediateActions', 'actionText']],
+    ['stations', () => '/procedures/stations', 'safety', ['stationName', 'callSign', 'ppe']],
+    ['crew plans', () => `/procedures/${ids.procedure}/crew`, 'safety', ['crewName', 'stationName']],
+    ['count report', () => `/counts/${ids.count}/report`, 'safety', ['countName']],
     ['people (admin)', () => '/admin/people', 'admin', ['name']],
     ['profile', () => '/profile', 'safety', ['name']],
   ];
