@@ -46,6 +46,12 @@ export async function seedDemoAnomalies(args: {
   // Critical on the built-in matrix; on a team matrix, its second-worst severity.
   const severity = matrixId === BUILT_IN_MATRIX_ID ? '2' : (m.matrix.severities[1] ?? m.matrix.severities[0]!).key;
   const last = (await Anomaly.max('number', { where: { teamId: team.id }, transaction })) as number | null;
+  // The record is dated after the count as a team would have kept it: reported 20 minutes after the hold, the hazard
+  // linked and the actions added the next day, the first action done two days later (never later than now).
+  const after = (minutes: number) => new Date(Math.min(at + minutes * 60_000, Date.now()));
+  const REPORTED = 20;
+  const NEXT_DAY = 24 * 60;
+  const DONE = 3 * 24 * 60 - 90;
 
   const a = await Anomaly.create(
     {
@@ -66,34 +72,53 @@ export async function seedDemoAnomalies(args: {
       reportedById: conductor.id,
       closedAt: null,
       closedById: null,
+      createdAt: after(REPORTED),
+      updatedAt: after(DONE),
     },
     { transaction },
   );
   const ref = anomalyRef(a.number);
-  const say = (who: User, text: string) => AnomalyHistory.create({ anomalyId: a.id, userId: who.id, userName: who.name, text }, { transaction });
-  await say(conductor, `Reported ${ref} “${a.title}” in the count “${count.name}” at ${tText(instant.tSeconds) ?? 'an instant before it started'}, severity ${severityLabel(m, severity)}.`);
+  const say = (who: User, minutes: number, text: string) =>
+    AnomalyHistory.create({ anomalyId: a.id, userId: who.id, userName: who.name, text, createdAt: after(minutes) }, { transaction });
+  await say(conductor, REPORTED, `Reported ${ref} “${a.title}” in the count “${count.name}” at ${tText(instant.tSeconds) ?? 'an instant before it started'}, severity ${severityLabel(m, severity)}.`);
 
   const hazard = await Hazard.findOne({ where: { teamId: team.id, title: DEMO_SURGE_HAZARD_TITLE }, transaction });
   if (hazard) {
-    await AnomalyHazard.create({ anomalyId: a.id, hazardId: hazard.id, createdById: safety.id }, { transaction });
-    await say(safety, `Linked the hazard ${hazardCode(hazard.number)} “${hazard.title}”.`);
+    await AnomalyHazard.create({ anomalyId: a.id, hazardId: hazard.id, createdById: safety.id, createdAt: after(NEXT_DAY) }, { transaction });
+    await say(safety, NEXT_DAY, `Linked the hazard ${hazardCode(hazard.number)} “${hazard.title}”.`);
     await HazardHistory.create(
-      { hazardId: hazard.id, userId: safety.id, userName: safety.name, field: 'anomaly', before: null, after: `${ref} ${a.title}` },
+      { hazardId: hazard.id, userId: safety.id, userName: safety.name, field: 'anomaly', before: null, after: `${ref} ${a.title}`, createdAt: after(NEXT_DAY) },
       { transaction },
     );
   }
 
   const day = (offset: number) => new Date(at + offset * 86_400_000).toISOString().slice(0, 10);
   const done = await CorrectiveAction.create(
-    { anomalyId: a.id, description: 'Check the inlet transducer against the reference gauge and re-zero it.', ownerId: pad.id, dueDate: day(3), status: 'done' },
+    {
+      anomalyId: a.id,
+      description: 'Check the inlet transducer against the reference gauge and re-zero it.',
+      ownerId: pad.id,
+      dueDate: day(3),
+      status: 'done',
+      createdAt: after(NEXT_DAY + 10),
+      updatedAt: after(DONE),
+    },
     { transaction },
   );
-  await say(safety, `Added the corrective action “${done.description}”, owner ${pad.name}, due ${done.dueDate}, open.`);
-  await say(pad, `Marked the corrective action “${done.description}” done (was open).`);
+  await say(safety, NEXT_DAY + 10, `Added the corrective action “${done.description}”, owner ${pad.name}, due ${done.dueDate}, open.`);
   const open = await CorrectiveAction.create(
-    { anomalyId: a.id, description: 'Slow the fuel pre-valve actuation and add the valve timing to the procedure.', ownerId: propellants.id, dueDate: day(14), status: 'open' },
+    {
+      anomalyId: a.id,
+      description: 'Slow the fuel pre-valve actuation and add the valve timing to the procedure.',
+      ownerId: propellants.id,
+      dueDate: day(14),
+      status: 'open',
+      createdAt: after(NEXT_DAY + 20),
+      updatedAt: after(NEXT_DAY + 20),
+    },
     { transaction },
   );
-  await say(safety, `Added the corrective action “${open.description}”, owner ${propellants.name}, due ${open.dueDate}, open.`);
+  await say(safety, NEXT_DAY + 20, `Added the corrective action “${open.description}”, owner ${propellants.name}, due ${open.dueDate}, open.`);
+  await say(pad, DONE, `Marked the corrective action “${done.description}” done (was open).`);
   return a;
 }
