@@ -26,43 +26,40 @@ const RUNS = (process.env.BENCH_QUICK ? FULL.map((r) => ({ ...r, warmup: 2, meas
 const GAP_MS = 5;
 
 
-// ---------------------------------------------------------------- the ws reference's conductor
+// ---------------------------------------------------------------- the references' conductors
 
-function conductorWs(wsUrl: string, n: number) {
-  const socket = new WebSocket(`${wsUrl}/?role=conductor`);
+/**
+ * A reference's conductor side: sends a poll (the message padded to Holdfire's poll:opened) and times it until the
+ * n-th station's reply has come back, counting replies doubled and missing.
+ */
+function referencePolls(n: number, what: string, send: (message: { id: number; answerSize: number; ackSize: number; relaySize: number; pad: string }) => void) {
   let current: { id: number; seen: Set<number>; resolve: (at: number) => void } | null = null;
   let duplicated = 0;
   let lost = 0;
   let id = 0;
-  socket.on('message', (data) => {
-    const reply = JSON.parse(data.toString()) as { id: number; station: number };
-    if (!current || reply.id !== current.id) return;
-    if (current.seen.has(reply.station)) duplicated += 1;
-    current.seen.add(reply.station);
-    if (current.seen.size === n) {
-      current.resolve(performance.now());
-      current = null;
-    }
-  });
   return {
-    socket,
     duplicated: () => duplicated,
     lost: () => lost,
-    open: () =>
-      new Promise<void>((resolve, reject) => {
-        socket.once('open', () => resolve());
-        socket.once('error', reject);
-      }),
+    reply(reply: { id: number; station: number }) {
+      if (!current || reply.id !== current.id) return;
+      if (current.seen.has(reply.station)) duplicated += 1;
+      current.seen.add(reply.station);
+      if (current.seen.size === n) {
+        current.resolve(performance.now());
+        current = null;
+      }
+    },
     async poll(sizes: MessageSizes): Promise<number> {
       id += 1;
-      const head = JSON.stringify({ id, answerSize: sizes.answer, relaySize: sizes.relay, pad: '' });
-      const message = JSON.stringify({ id, answerSize: sizes.answer, relaySize: sizes.relay, pad: 'x'.repeat(Math.max(0, sizes.poll - head.length)) });
+      // An acknowledgement (socket.io only) is about the size of the poll:answered event Holdfire's carries.
+      const head = { id, answerSize: sizes.answer, ackSize: sizes.relay, relaySize: sizes.relay };
+      const message = { ...head, pad: 'x'.repeat(Math.max(0, sizes.poll - JSON.stringify({ ...head, pad: '' }).length)) };
       const seen = new Set<number>();
       const start = performance.now();
       const done = new Promise<number>((resolve) => (current = { id, seen, resolve }));
-      socket.send(message);
+      send(message);
       try {
-        return (await withLimit(done, POLL_LIMIT_MS, 'ws poll')) - start;
+        return (await withLimit(done, POLL_LIMIT_MS, `${what} poll`)) - start;
       } catch (error) {
         lost += n - seen.size;
         throw error;
@@ -71,48 +68,34 @@ function conductorWs(wsUrl: string, n: number) {
   };
 }
 
-// ---------------------------------------------------------------- the bare socket.io reference's conductor
+function conductorWs(wsUrl: string, n: number) {
+  const socket = new WebSocket(`${wsUrl}/?role=conductor`);
+  const polls = referencePolls(n, 'ws', (message) => socket.send(JSON.stringify(message)));
+  socket.on('message', (data) => polls.reply(JSON.parse(data.toString()) as { id: number; station: number }));
+  return {
+    ...polls,
+    socket,
+    open: () =>
+      new Promise<void>((resolve, reject) => {
+        socket.once('open', () => resolve());
+        socket.once('error', reject);
+      }),
+  };
+}
 
+/** The bare socket.io reference's conductor (bench/server.ts). */
 function conductorSio(sioUrl: string, n: number) {
   const socket = connectSio(sioUrl, { transports: ['websocket'], reconnection: false, forceNew: true, query: { role: 'conductor' } });
-  let current: { id: number; seen: Set<number>; resolve: (at: number) => void } | null = null;
-  let duplicated = 0;
-  let lost = 0;
-  let id = 0;
-  socket.on('answered', (reply: { id: number; station: number }) => {
-    if (!current || reply.id !== current.id) return;
-    if (current.seen.has(reply.station)) duplicated += 1;
-    current.seen.add(reply.station);
-    if (current.seen.size === n) {
-      current.resolve(performance.now());
-      current = null;
-    }
-  });
+  const polls = referencePolls(n, 'socket.io', (message) => socket.emit('open', message));
+  socket.on('answered', (reply: { id: number; station: number }) => polls.reply(reply));
   return {
+    ...polls,
     socket,
-    duplicated: () => duplicated,
-    lost: () => lost,
     open: () =>
       new Promise<void>((resolve, reject) => {
         socket.once('connect', () => resolve());
         socket.once('connect_error', reject);
       }),
-    async poll(sizes: MessageSizes): Promise<number> {
-      id += 1;
-      // The acknowledgement of an answer is about the size of the poll:answered event it carries.
-      const head = { id, answerSize: sizes.answer, ackSize: sizes.relay, relaySize: sizes.relay };
-      const message = { ...head, pad: 'x'.repeat(Math.max(0, sizes.poll - JSON.stringify({ ...head, pad: '' }).length)) };
-      const seen = new Set<number>();
-      const start = performance.now();
-      const done = new Promise<number>((resolve) => (current = { id, seen, resolve }));
-      socket.emit('open', message);
-      try {
-        return (await withLimit(done, POLL_LIMIT_MS, 'socket.io poll')) - start;
-      } catch (error) {
-        lost += n - seen.size;
-        throw error;
-      }
-    },
   };
 }
 
