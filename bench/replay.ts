@@ -4,7 +4,7 @@
  * the full timeline (the fold over every event, and the count report that walks it). No server, no disk.
  */
 import { performance } from 'node:perf_hooks';
-import { stateAt, replay } from '../src/domain/count/reduce';
+import { replay, replayIndex, stateAt } from '../src/domain/count/reduce';
 import { countReport } from '../src/domain/count/report';
 import { conductor, daq, kestrelPlan, prop, range, Sim, START } from '../tests/domain/count-fixture';
 
@@ -60,6 +60,15 @@ export function benchReplay(): void {
   let seqs = 0;
   for (const at of instants) seqs += stateAt(events, at).lastSeq;
   const stateAtMs = performance.now() - t0;
+  // The replay page's way: fold once keeping states along the log, then ask for each instant.
+  const ti = performance.now();
+  const index = replayIndex(events);
+  const indexBuildMs = performance.now() - ti;
+  const tq = performance.now();
+  let indexed = 0;
+  for (const at of instants) indexed += index.stateAt(at).lastSeq;
+  const indexMs = performance.now() - tq;
+  if (indexed !== seqs) throw new Error('replay bench: the index does not answer as stateAt does');
   const t1 = performance.now();
   const full = replay(events);
   const replayMs = performance.now() - t1;
@@ -70,6 +79,6 @@ export function benchReplay(): void {
   const rssAfter = process.memoryUsage().rss / 2 ** 20;
   if (full.lastSeq !== events.length || seqs <= 0 || !report) throw new Error('replay bench: the replay does not match the events');
   console.log(
-    `replay events=${events.length} state_at_100_ms=${stateAtMs.toFixed(1)} state_at_each_ms=${(stateAtMs / 100).toFixed(2)} full_replay_ms=${replayMs.toFixed(1)} report_ms=${reportMs.toFixed(1)} heap_growth_mb=${(heapAfter - heapBefore).toFixed(1)} rss_mb=${rssAfter.toFixed(1)} rss_growth_mb=${(rssAfter - rssBefore).toFixed(1)} build_ms=${buildMs.toFixed(0)}`,
+    `replay events=${events.length} state_at_100_ms=${stateAtMs.toFixed(1)} state_at_each_ms=${(stateAtMs / 100).toFixed(2)} full_replay_ms=${replayMs.toFixed(1)} report_ms=${reportMs.toFixed(1)} index_build_ms=${indexBuildMs.toFixed(1)} index_state_at_each_ms=${(indexMs / 100).toFixed(3)} heap_growth_mb=${(heapAfter - heapBefore).toFixed(1)} rss_mb=${rssAfter.toFixed(1)} rss_growth_mb=${(rssAfter - rssBefore).toFixed(1)} build_ms=${buildMs.toFixed(0)}`,
   );
 }

@@ -1,5 +1,6 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { dueEvents, nextDueAt, stateAt, tAt, type CountState } from '../../src/domain/count';
+import { dueEvents, nextDueAt, replayIndex, stateAt, tAt, type CountEvent, type CountState } from '../../src/domain/count';
 import { at, conductor, prop, range, Sim, START } from './count-fixture';
 
 describe('dueEvents', () => {
@@ -75,5 +76,54 @@ describe('stateAt', () => {
     }
     // At START + 400 s the count stood on hold where it was called, 320 s after T-30:00: -1480 (T-24:40).
     expect(tAt(stateAt(sim.events, at(400)), at(400))).toBe(-1480);
+  });
+});
+
+describe('replayIndex', () => {
+  /** A count with holds, polls, a redline and a recycle: dozens of events at many instants, several at the same one. */
+  function busyCount() {
+    const sim = new Sim();
+    sim.ok(conductor, { type: 'count:start' }, START);
+    sim.ok(prop, { type: 'hold:call', category: 'propellant', reason: 'LOX fill valve sticking' }, at(320));
+    sim.ok(prop, { type: 'hold:clear', holdId: 'h1' }, at(500));
+    sim.ok(conductor, { type: 'count:resume' }, at(510));
+    sim.advance(at(2000));
+    sim.ok(prop, { type: 'poll:answer', pollId: 'p1', station: 'PROP', answer: 'nogo', reason: 'vent valve slow' }, at(2005));
+    // The poll times out with two stations silent and holds the count; the conductor clears it and recycles.
+    sim.advance(at(2090));
+    sim.ok(conductor, { type: 'hold:clear', holdId: 'h2' }, at(2095));
+    sim.ok(conductor, { type: 'count:recycle', toSeconds: -1200, reason: 'vent valve swapped' }, at(2100));
+    sim.ok(conductor, { type: 'count:resume' }, at(2200));
+    // The poll step comes round again after the recycle; it times out unanswered and holds the count once more.
+    sim.advance(at(5000));
+    return sim.events;
+  }
+
+  it('gives the same state as stateAt at any instant, whatever the spacing of its kept states', () => {
+    const events = busyCount();
+    expect(events.length).toBeGreaterThan(25);
+    const first = events[0]!.at;
+    const last = events.at(-1)!.at;
+    const instant = fc.oneof(
+      fc.integer({ min: first - 5000, max: last + 5000 }),
+      fc.constantFrom(...events.map((e) => e.at)),
+      fc.constantFrom(...events.map((e) => e.at - 1)),
+    );
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 40 }), fc.array(instant, { minLength: 1, maxLength: 12 }), (every, instants) => {
+        const index = replayIndex(events, every);
+        for (const t of instants) expect(index.stateAt(t)).toEqual(stateAt(events, t));
+        expect(index.final).toEqual(stateAt(events, last));
+      }),
+      { numRuns: 150 },
+    );
+  });
+
+  it('answers a log whose instants go back as stateAt does', () => {
+    const events = busyCount();
+    // An imported log with one event dated before the one before it.
+    const shuffled: CountEvent[] = events.map((e, i) => (i === 10 ? { ...e, at: events[3]!.at } : e));
+    const index = replayIndex(shuffled, 4);
+    for (const t of [events[3]!.at, events[9]!.at, events[12]!.at]) expect(index.stateAt(t)).toEqual(stateAt(shuffled, t));
   });
 });

@@ -291,3 +291,45 @@ export function replay(events: readonly CountEvent[], from: CountState = initial
 export function stateAt(events: readonly CountEvent[], atMs: number): CountState {
   return replay(events.filter((e) => e.at <= atMs));
 }
+
+export interface ReplayIndex {
+  /** The same state as stateAt(events, atMs). */
+  stateAt(atMs: number): CountState;
+  /** The state after every event. */
+  final: CountState;
+}
+
+/**
+ * stateAt for many instants of one log (a replay scrubbed back and forth): the log is folded once and the state kept
+ * after every `every` events, so each question folds at most `every` events from the kept state before it instead
+ * of the whole log from the start. A count's events come in seq order with their instants in order too (the clock's
+ * own events are never dated before the last event); a log whose instants go back is answered by stateAt itself.
+ */
+export function replayIndex(events: readonly CountEvent[], every = 200): ReplayIndex {
+  const kept: CountState[] = [initialCountState()];
+  let state = kept[0]!;
+  let ordered = true;
+  events.forEach((e, i) => {
+    if (i > 0 && e.at < events[i - 1]!.at) ordered = false;
+    state = reduce(state, e);
+    if ((i + 1) % every === 0) kept.push(state);
+  });
+  const final = state;
+  if (!ordered) return { final, stateAt: (atMs) => stateAt(events, atMs) };
+  return {
+    final,
+    stateAt(atMs) {
+      // How many events happened at or before atMs: the first index whose instant is later.
+      let lo = 0;
+      let hi = events.length;
+      while (lo < hi) {
+        const mid = (lo + hi) >>> 1;
+        if (events[mid]!.at <= atMs) lo = mid + 1;
+        else hi = mid;
+      }
+      if (lo === events.length) return final;
+      const from = Math.floor(lo / every);
+      return replay(events.slice(from * every, lo), kept[from]!);
+    },
+  };
+}

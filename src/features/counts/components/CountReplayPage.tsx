@@ -8,7 +8,7 @@ import { Notice } from '../../../components/ui/Notice';
 import { Loading, Page } from '../../../components/ui/Page';
 import type { CountEventDto } from '../../../contract/count';
 import { HOLD_CATEGORY_LABELS, type CountEvent } from '../../../domain/count/events';
-import { reduce, stateAt } from '../../../domain/count/reduce';
+import { reduce, replayIndex } from '../../../domain/count/reduce';
 import { initialCountState, tAt } from '../../../domain/count/state';
 import { instantsAtT } from '../../../domain/count/timeline';
 import { formatTMinus, parseTMinus, T_MINUS_HINT } from '../../../domain/procedures/tminus';
@@ -38,8 +38,9 @@ function marksOf(events: readonly CountEvent[]): Mark[] {
 }
 
 /**
- * Replay: the count at any instant of its log, folded by the same reducer that ran it live (`stateAt`). A scrubber,
- * play at 1x, 10x and 60x, jumps to the next hold, poll or redline, and a link to the instant shown.
+ * Replay: the count at any instant of its log, folded by the same reducer that ran it live (`replayIndex`: the
+ * answers of `stateAt`, from states kept along the log). A scrubber, play at 1x, 10x and 60x, jumps to the next hold,
+ * poll or redline, and a link to the instant shown.
  */
 export function CountReplayPage() {
   const { id } = useParams();
@@ -92,9 +93,11 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
     () => [...marksOf(events), ...reported.map((a): Mark => ({ kind: 'anomaly', at: a.atMs }))].sort((a, b) => a.at - b.at),
     [events, reported],
   );
+  // Scrubbing asks for the state at instant after instant: fold the log once, keep states along it.
+  const index = useMemo(() => replayIndex(events), [events]);
   // Every hold of the whole count, shaded on the timeline.
-  const allHolds = useMemo(() => stateAt(events, last).holds, [events, last]);
-  const state = useMemo(() => stateAt(events, at), [events, at]);
+  const allHolds = index.final.holds;
+  const state = useMemo(() => index.stateAt(at), [index, at]);
   const t = tAt(state, at);
 
   useEffect(() => {
