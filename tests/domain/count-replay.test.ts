@@ -119,6 +119,13 @@ describe('replayIndex', () => {
     );
   });
 
+  it('shows its caller each step of the one fold', () => {
+    const events = busyCount();
+    const steps: [number, number, number][] = [];
+    replayIndex(events, 5, (e, before, after) => steps.push([e.seq, before.lastSeq, after.lastSeq]));
+    expect(steps).toEqual(events.map((e, i) => [e.seq, i === 0 ? 0 : events[i - 1]!.seq, e.seq]));
+  });
+
   it('answers a log whose instants go back as stateAt does', () => {
     const events = busyCount();
     // An imported log with one event dated before the one before it.

@@ -305,13 +305,20 @@ export interface ReplayIndex {
  * of the whole log from the start. A count's events come in seq order with their instants in order too (the clock's
  * own events are never dated before the last event); a log whose instants go back is answered by stateAt itself.
  */
-export function replayIndex(events: readonly CountEvent[], every = 200): ReplayIndex {
+export function replayIndex(
+  events: readonly CountEvent[],
+  every = 200,
+  /** Called with each event and the states before and after it, for a caller that wants the fold's steps too. */
+  visit?: (event: CountEvent, before: CountState, after: CountState) => void,
+): ReplayIndex {
   const kept: CountState[] = [initialCountState()];
   let state = kept[0]!;
   let ordered = true;
   events.forEach((e, i) => {
     if (i > 0 && e.at < events[i - 1]!.at) ordered = false;
+    const before = state;
     state = reduce(state, e);
+    visit?.(e, before, state);
     if ((i + 1) % every === 0) kept.push(state);
   });
   const final = state;

@@ -8,8 +8,8 @@ import { Notice } from '../../../components/ui/Notice';
 import { Loading, Page } from '../../../components/ui/Page';
 import type { CountEventDto } from '../../../contract/count';
 import { HOLD_CATEGORY_LABELS, type CountEvent } from '../../../domain/count/events';
-import { reduce, replayIndex } from '../../../domain/count/reduce';
-import { initialCountState, tAt } from '../../../domain/count/state';
+import { replayIndex } from '../../../domain/count/reduce';
+import { tAt } from '../../../domain/count/state';
 import { instantsAtT } from '../../../domain/count/timeline';
 import { formatTMinus, parseTMinus, T_MINUS_HINT } from '../../../domain/procedures/tminus';
 import { api, errorMessage } from '../../../lib/api';
@@ -78,14 +78,12 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
   const [tText, setTText] = useState('');
   const [tFound, setTFound] = useState<{ t: number; instants: number[]; index: number } | { error: string } | null>(null);
 
-  // Every event with the count time it happened at, folded once.
-  const entries = useMemo(() => {
-    let s = initialCountState();
-    return events.map((e): LogEntry => {
-      const before = s;
-      s = reduce(s, e);
-      return { event: e, t: logT(before, s, e) };
-    });
+  // One fold of the log: every event with the count time it happened at, and the states kept for scrubbing (the
+  // state at instant after instant, each folded from the kept state before it).
+  const { entries, index } = useMemo(() => {
+    const list: LogEntry[] = [];
+    const built = replayIndex(events, undefined, (e, before, after) => list.push({ event: e, t: logT(before, after, e) }));
+    return { entries: list, index: built };
   }, [events]);
   const anomalies = useCountAnomalies(countId);
   const reported = useMemo(() => (anomalies.data ?? []).filter((a) => a.atMs >= first && a.atMs <= last), [anomalies.data, first, last]);
@@ -93,8 +91,6 @@ function Replay({ countId, events }: { countId: number; events: CountEvent[] }) 
     () => [...marksOf(events), ...reported.map((a): Mark => ({ kind: 'anomaly', at: a.atMs }))].sort((a, b) => a.at - b.at),
     [events, reported],
   );
-  // Scrubbing asks for the state at instant after instant: fold the log once, keep states along it.
-  const index = useMemo(() => replayIndex(events), [events]);
   // Every hold of the whole count, shaded on the timeline.
   const allHolds = index.final.holds;
   const state = useMemo(() => index.stateAt(at), [index, at]);
